@@ -1,0 +1,100 @@
+import express, { type Express } from "express";
+import session, { type Store } from "express-session";
+import helmet from "helmet";
+import { existsSync } from "node:fs";
+import path from "node:path";
+import type { Sequelize } from "sequelize";
+import type { Config } from "./config";
+import type { Logger } from "./logger";
+import { createPassport } from "./auth/passport";
+import { csrfProtection } from "./middleware/csrf";
+import { errorHandler } from "./middleware/error-handler";
+import { notFoundHandler } from "./middleware/not-found";
+import { apiRouter } from "./routes/index";
+import { healthRouter } from "./routes/health.routes";
+import { UsersService } from "./services/users.service";
+
+export interface AppDeps {
+  config: Config;
+  logger: Logger;
+  sequelize: Sequelize;
+  sessionStore: Store;
+  /** Built client to serve (dist/); omitted in API tests. */
+  clientDir?: string;
+}
+
+export interface AppContext extends AppDeps {
+  passport: ReturnType<typeof createPassport>;
+  services: { users: UsersService };
+}
+
+export const SESSION_COOKIE = "rw.sid";
+
+/** Builds the Express app; never listens (server/index.ts does). */
+export function createApp(deps: AppDeps): Express {
+  const { config, logger } = deps;
+  const passport = createPassport();
+  const ctx: AppContext = {
+    ...deps,
+    passport,
+    services: { users: new UsersService(deps.sequelize, config.bcryptRounds) },
+  };
+
+  const app = express();
+  app.disable("x-powered-by");
+  if (config.trustProxy) app.set("trust proxy", 1);
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          "default-src": ["'self'"],
+          "img-src": ["'self'", "data:", "blob:"],
+          "style-src": ["'self'", "'unsafe-inline'"],
+          "font-src": ["'self'", "data:"],
+          "script-src": ["'self'"],
+          "connect-src": ["'self'"],
+          "frame-ancestors": ["'none'"],
+          "form-action": ["'self'"],
+          "upgrade-insecure-requests": config.env === "production" ? [] : null,
+        },
+      },
+    }),
+  );
+
+  // No session needed: health answers even when the session store cannot.
+  app.use("/api/health", healthRouter(deps.sequelize));
+
+  app.use("/api", express.json({ limit: "1mb" }));
+  app.use(
+    "/api",
+    session({
+      name: SESSION_COOKIE,
+      secret: config.sessionSecret,
+      store: deps.sessionStore,
+      resave: false,
+      saveUninitialized: false,
+      cookie: {
+        httpOnly: true,
+        sameSite: "lax",
+        secure: config.env === "production",
+        maxAge: config.sessionMaxAgeMs,
+      },
+    }),
+    passport.initialize(),
+    passport.session(),
+    csrfProtection,
+  );
+  app.use("/api", apiRouter(ctx), notFoundHandler);
+
+  if (deps.clientDir && existsSync(path.join(deps.clientDir, "index.html"))) {
+    const dir = deps.clientDir;
+    app.use(express.static(dir, { index: false, maxAge: "1h" }));
+    app.get("/{*splat}", (_req, res) => {
+      res.set("Cache-Control", "no-cache").sendFile(path.join(dir, "index.html"));
+    });
+  }
+
+  app.use(errorHandler(logger));
+  return app;
+}

@@ -1,0 +1,39 @@
+import { defineConfig } from "vitest/config";
+import react from "@vitejs/plugin-react";
+import { aliases } from "./vite.config.ts";
+
+const resolve = { alias: Object.entries(aliases).map(([find, replacement]) => ({ find, replacement })) };
+
+export default defineConfig({
+  test: {
+    projects: [
+      {
+        resolve,
+        test: { name: "shared", environment: "node", include: ["tests/shared/**/*.test.ts"] },
+      },
+      {
+        resolve,
+        test: {
+          name: "server",
+          environment: "node",
+          include: ["tests/server/**/*.test.ts"],
+          fileParallelism: false,
+          globalSetup: ["tests/helpers/server-global-setup.ts"],
+          setupFiles: ["tests/helpers/server-setup.ts"],
+          testTimeout: 20_000,
+          hookTimeout: 30_000,
+        },
+      },
+      {
+        plugins: [react()],
+        resolve,
+        test: {
+          name: "client",
+          environment: "jsdom",
+          include: ["tests/client/**/*.test.{ts,tsx}"],
+          setupFiles: ["tests/helpers/client-setup.ts"],
+        },
+      },
+    ],
+  },
+});
