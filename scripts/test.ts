@@ -10,7 +10,7 @@ import { resetTestDatabase } from "../tests/helpers/test-db";
 
 async function main(): Promise<number> {
   const db = await startLocalMariaDb({
-    base: ".test-data/mariadb",
+    base: process.env.TEST_DB_DIR ?? ".test-data/mariadb",
     port: Number(process.env.TEST_DB_PORT ?? 3317),
     database: "ridgewright_test",
     user: "app_test",
@@ -28,13 +28,12 @@ async function main(): Promise<number> {
       DB_NAME: db.database,
       DB_USER: db.user,
       DB_PASSWORD: db.password,
-      TEST_DB_SOCKET: ".test-data/mariadb/run/mysqld.sock",
-      BCRYPT_ROUNDS: "4",
+            BCRYPT_ROUNDS: "4",
       LOG_LEVEL: "silent",
     };
     await resetTestDatabase(env);
     mkdirSync(".test-data", { recursive: true });
-    const report = ".test-data/vitest-report.json";
+    const report = `${process.env.TEST_DB_DIR ?? ".test-data/mariadb"}/vitest-report.json`;
     rmSync(report, { force: true });
     const code = await new Promise<number>((resolve) => {
       const child = spawn(

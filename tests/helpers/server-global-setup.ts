@@ -10,7 +10,7 @@ let db: LocalDb | null = null;
 export async function setup() {
   if (process.env.DB_PORT && process.env.NODE_ENV === "test") return;
   db = await startLocalMariaDb({
-    base: ".test-data/mariadb",
+    base: process.env.TEST_DB_DIR ?? ".test-data/mariadb",
     port: Number(process.env.TEST_DB_PORT ?? 3317),
     database: "ridgewright_test",
     user: "app_test",
