@@ -1,0 +1,47 @@
+import { ROLES, type Role } from "@shared/auth/roles";
+
+export const paths = {
+  home: "/",
+  signIn: "/sign-in",
+  jobs: "/jobs",
+  approvals: "/approvals",
+  priceBook: "/price-book",
+  team: "/team",
+  account: "/account",
+} as const;
+
+/** Which roles may open each signed-in screen. The server refuses the same roles on the API. */
+export const screenAccess = {
+  jobs: ROLES,
+  approvals: ["owner"],
+  priceBook: ["owner", "estimator"],
+  team: ["owner"],
+  account: ROLES,
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Screen = keyof typeof screenAccess;
+
+export const canOpen = (screen: Screen, role: Role) => (screenAccess[screen] as readonly Role[]).includes(role);
+
+/** The main navigation, in order; each entry is shown only to the roles that may open it. */
+export const mainNav: { screen: Screen; to: string; label: string }[] = [
+  { screen: "jobs", to: paths.jobs, label: "Jobs" },
+  { screen: "approvals", to: paths.approvals, label: "Approvals" },
+  { screen: "priceBook", to: paths.priceBook, label: "Price book" },
+  { screen: "team", to: paths.team, label: "Team" },
+];
+
+/**
+ * A `next` target from the query string, kept only when it is a path on this site
+ * (no scheme, no `//host`, not the sign-in page itself); otherwise the jobs board.
+ */
+export function safeNext(raw: string | null | undefined): string {
+  if (!raw || !raw.startsWith("/") || raw.startsWith("//") || raw.startsWith("/\\")) return paths.jobs;
+  if (raw === paths.signIn || raw.startsWith(`${paths.signIn}?`) || raw.startsWith(`${paths.signIn}/`)) return paths.jobs;
+  return raw;
+}
+
+export function signInPath(next?: string): string {
+  if (!next || next === paths.home || safeNext(next) !== next) return paths.signIn;
+  return `${paths.signIn}?${new URLSearchParams({ next })}`;
+}
