@@ -1,0 +1,37 @@
+import { Router } from "express";
+import { computeTakeoff } from "../../shared/engine/takeoff";
+import { computeGapStudy } from "../../shared/engine/gap-study";
+import { HttpError } from "../errors";
+import { requireAuth } from "../middleware/require-auth";
+import { requireBody } from "./auth.routes";
+
+type Refusal = { reason: string; path: (string | number)[]; fields?: Record<string, string> };
+
+/** The engine's refusal as the API's 400: the message and every field path it names. */
+export function engineRefusal(r: Refusal): HttpError {
+  const fields = r.fields ?? { [r.path.map(String).join(".") || "body"]: r.reason };
+  return new HttpError(400, "bad_request", r.reason, fields);
+}
+
+/**
+ * Stateless calculations for previews and integrations: the same engine the stored jobs use.
+ * Any signed-in role may call them; the results hold quantities, never prices.
+ */
+export function calcRouter(): Router {
+  const router = Router();
+  router.use(requireAuth);
+
+  router.post("/takeoff", (req, res) => {
+    const outcome = computeTakeoff(requireBody(req));
+    if (!outcome.ok) throw engineRefusal(outcome);
+    res.json({ data: outcome.result });
+  });
+
+  router.post("/gap-study", (req, res) => {
+    const outcome = computeGapStudy(requireBody(req));
+    if (!outcome.ok) throw engineRefusal(outcome);
+    res.json({ data: { options: outcome.options } });
+  });
+
+  return router;
+}

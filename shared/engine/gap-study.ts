@@ -1,0 +1,98 @@
+/**
+ * Gap study: the same takeoff for each of the five spacer options side by side, for a set of planes:
+ * none, battens, counter-battens (battens over counter-battens), 3D mesh mat, dimpled sheet. Battens take
+ * the assembly's batten settings, which default to 1x4 at 24 in. Every assembly used by the chosen planes
+ * gets the option's spacer; edges are still typed against the whole roof.
+ */
+import { gapStudyInputSchema, type GapStudyInput, type StackInput } from "../schemas/takeoff";
+import type { Advisory } from "./advisory";
+import { computeTakeoffParsed, refusalFromZod } from "./takeoff";
+import type { MaterialLine } from "./materials";
+import type { TakeoffResult } from "./types";
+
+export const GAP_STUDY_OPTIONS = ["none", "battens", "counter-battens", "mesh", "dimpled"] as const;
+export type GapStudyOption = (typeof GAP_STUDY_OPTIONS)[number];
+
+export interface GapStudySummary {
+  gapIn: number;
+  channelHeightIn: number;
+  continuous: boolean;
+  qualifies: boolean;
+  channelNfaPerFtSqIn: number;
+  effectiveEmittance: number | null;
+  airSpaceRSummer: number | null;
+  airSpaceRWinter: number | null;
+  rNote: string;
+  upliftAssembly: "tested" | "not-tested-needs-review" | "not-required";
+  /** The spacer's own materials (mats, battens, their fasteners). */
+  spacerMaterials: MaterialLine[];
+  advisories: Advisory[];
+}
+
+export interface GapStudyOptionResult {
+  spacer: GapStudyOption;
+  summary: GapStudySummary;
+  result: TakeoffResult;
+}
+
+export type GapStudyOutcome =
+  | { ok: true; options: GapStudyOptionResult[] }
+  | { ok: false; reason: string; path: (string | number)[]; fields?: Record<string, string> };
+
+function withSpacer(stack: StackInput, option: GapStudyOption): StackInput {
+  const sp = stack.spacer;
+  const keepThickness = (kind: "mesh" | "dimpled") => (sp.kind === kind ? { thicknessIn: sp.thicknessIn, openFraction: sp.openFraction } : {});
+  switch (option) {
+    case "none":
+      return { ...stack, spacer: { ...sp, kind: "none" } };
+    case "battens":
+      return { ...stack, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: false } } };
+    case "counter-battens":
+      return { ...stack, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: true } } };
+    case "mesh":
+      return { ...stack, spacer: { kind: "mesh", battens: sp.battens, ...keepThickness("mesh") } };
+    case "dimpled":
+      return { ...stack, spacer: { kind: "dimpled", battens: sp.battens, ...keepThickness("dimpled") } };
+  }
+}
+
+const SPACER_KEYS = /^(spacer-|batten-|counter-batten-|screw-batten$)/;
+
+export function computeGapStudyParsed(input: GapStudyInput): GapStudyOutcome {
+  const options: GapStudyOptionResult[] = [];
+  const chosen = new Set(input.planeIds);
+  const usedStacks = new Set(input.planes.filter((p) => chosen.has(p.id)).map((p) => p.stackId ?? input.defaultStackId));
+  for (const option of GAP_STUDY_OPTIONS) {
+    const stacks = input.stacks.map((s) => (usedStacks.has(s.id) ? withSpacer(s, option) : s));
+    const out = computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds });
+    if (!out.ok) return out;
+    const r = out.result;
+    const main = r.stacks.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt ? s : m), r.stacks[0]);
+    options.push({
+      spacer: option,
+      summary: {
+        gapIn: main.channel.gapIn,
+        channelHeightIn: main.channel.channelHeightIn,
+        continuous: main.channel.continuous,
+        qualifies: main.channel.qualifies,
+        channelNfaPerFtSqIn: main.channel.channelNfaPerFtSqIn,
+        effectiveEmittance: main.thermal.effectiveEmittance,
+        airSpaceRSummer: main.thermal.airSpaceRSummer,
+        airSpaceRWinter: main.thermal.airSpaceRWinter,
+        rNote: main.thermal.rNote,
+        upliftAssembly: main.upliftAssembly,
+        spacerMaterials: r.materials.filter((m) => SPACER_KEYS.test(m.key)),
+        advisories: r.advisories,
+      },
+      result: r,
+    });
+  }
+  return { ok: true, options };
+}
+
+/** Parse with the schema (takeoff input + planeIds), then run the five options. */
+export function computeGapStudy(input: unknown): GapStudyOutcome {
+  const parsed = gapStudyInputSchema.safeParse(input);
+  if (!parsed.success) return refusalFromZod(parsed.error);
+  return computeGapStudyParsed(parsed.data);
+}

@@ -1,0 +1,148 @@
+/**
+ * The takeoff's result. Areas, squares and lengths are not rounded; material quantities are in purchase
+ * units, waste included, rounded up once for the job. Lengths in feet unless named `…In`.
+ */
+import type { Advisory } from "./advisory";
+import type { MaterialLine } from "./materials";
+import type { EdgeType } from "./roof/edge-types";
+import type { EdgeTotals } from "./roof/edges";
+import type { CutListEntry } from "./roof/panels";
+import type { ChannelResult } from "./ventilation/channel";
+import type { VentilationResult } from "./ventilation/index";
+import type { ThermalResult } from "./thermal/index";
+import type { PlaneWindZones, WindZone } from "./wind/zones";
+
+export type { EdgeType, EdgeTotals, MaterialLine, Advisory, CutListEntry, WindZone };
+
+export interface EdgeResult {
+  /** The input edge number (edge i runs from vertex i to vertex i + 1). */
+  index: number;
+  /** Piece number when the edge is split where a neighbouring plane's edge begins or ends. */
+  part: number;
+  type: EdgeType;
+  /** The type from the geometry, before any override. */
+  computedType: EdgeType;
+  overridden: boolean;
+  shared: boolean;
+  /** The neighbouring plane along this piece, if shared. */
+  sharedWith: { planeId: string; edgeIndex: number } | null;
+  from: [number, number];
+  to: [number, number];
+  planLengthFt: number;
+  trueLengthFt: number;
+}
+
+export interface PanelsResult {
+  system: "standing-seam" | "exposed-fastener";
+  coverageWidthIn: number;
+  count: number;
+  /** One entry per panel, whole inches. */
+  lengthsIn: number[];
+  cutList: CutListEntry[];
+  offcutSqFt: number;
+  totalLengthFt: number;
+  longestIn: number;
+}
+
+export interface PlaneLayersResult {
+  underlaymentSqFt: number;
+  iceBarrier: null | { widthIn: number; courses: number; eaveLf: number; membraneLf: number; note?: string };
+  battens: null | { nominal: string; rows: number; lf: number; fasteners: number; spacingIn: number };
+  counterBattens: null | { nominal: string; runs: number; lf: number; fasteners: number; spacingIn: number };
+  meshSqFt: number;
+  dimpledSqFt: number;
+  foilSqFt: number;
+  deckSqFt: number;
+}
+
+export interface PlaneResult {
+  id: string;
+  name: string;
+  stackId: string;
+  pitch: number;
+  angleDeg: number;
+  slopeFactor: number;
+  planAreaSqFt: number;
+  slopedAreaSqFt: number;
+  squares: number;
+  /** Each vertex with its height (ft). */
+  vertices: { x: number; y: number; z: number }[];
+  eaveEdge: number;
+  edges: EdgeResult[];
+  panels: PanelsResult;
+  windZones: PlaneWindZones;
+  layers: PlaneLayersResult;
+}
+
+export interface ZoneFasteners {
+  clips: number;
+  clipScrews: number;
+  /** Exposed-fastener screws in the zone (unrounded rate × area). */
+  panelScrews: number;
+  /** Clip-line (or panel centre-line) length in the zone along the slope, ft. */
+  lineFt: number;
+  /** Panel area in the zone along the slope, ft² (exposed-fastener panels). */
+  areaSqFt: number;
+}
+
+export interface FastenersResult {
+  /** Pieces placed on the roof, without waste. */
+  clips: number;
+  clipScrews: number;
+  panelScrews: number;
+  trimFasteners: number;
+  spacerFasteners: number;
+  zones: Record<WindZone, ZoneFasteners>;
+}
+
+export interface WindResult {
+  aFt: number;
+  leastHorizontalDimensionFt: number;
+  leastHorizontalDimensionEstimated: boolean;
+  meanRoofHeightFt: number | null;
+  governs: string;
+  hipRoof: boolean;
+  basicWindSpeedMph: number | null;
+  exposure: "B" | "C" | "D" | null;
+}
+
+export interface StackResult {
+  id: string;
+  name: string | null;
+  planeIds: string[];
+  planAreaSqFt: number;
+  slopedAreaSqFt: number;
+  squares: number;
+  channel: ChannelResult;
+  thermal: ThermalResult;
+  /** The assembly no longer matches a tested uplift assembly (spacer present). */
+  upliftAssembly: "tested" | "not-tested-needs-review" | "not-required";
+}
+
+export interface TakeoffTotals {
+  planAreaSqFt: number;
+  slopedAreaSqFt: number;
+  squares: number;
+  panelCount: number;
+  panelLengthFt: number;
+  offcutSqFt: number;
+  deckSheets: number;
+}
+
+export interface TakeoffResult {
+  planes: PlaneResult[];
+  edgeTotals: EdgeTotals;
+  totals: TakeoffTotals;
+  materials: MaterialLine[];
+  fasteners: FastenersResult;
+  wind: WindResult;
+  ventilation: VentilationResult;
+  /** The roof's thermal figures: those of the dominant assembly (largest sloped area). */
+  thermal: ThermalResult & { stackId: string };
+  stacks: StackResult[];
+  advisories: Advisory[];
+}
+
+export type TakeoffOutcome =
+  | { ok: true; result: TakeoffResult }
+  | { ok: false; reason: string; path: (string | number)[]; fields?: Record<string, string> };

@@ -1,0 +1,382 @@
+/**
+ * Input of the roof takeoff (POST /api/calc/takeoff) and the gap study (POST /api/calc/gap-study).
+ *
+ * Sub-objects and fields not given take defaults (filled here, so the engine sees complete input);
+ * unknown keys are stripped; ids are non-empty strings. Plan coordinates are feet, small sizes inches,
+ * pitch is rise per 12 of run. Every `rules` field has a default, so `{}` parses.
+ * Defaults are tagged like the engine's tests: [published] with the source, [common practice], [from memory].
+ */
+import { z } from "zod";
+import { EDGE_TYPES } from "../engine/roof/edge-types";
+import { planeGeometry, isGeometryError } from "../engine/roof/geometry";
+
+export { EDGE_TYPES };
+export const MAX_PLANES = 500;
+export const ATTIC_TYPES = ["vented", "unvented", "cathedral"] as const;
+export const CODE_EDITIONS = [2012, 2015, 2018, 2021, 2024] as const;
+export const UNDERLAYMENT_KINDS = ["self-adhered", "synthetic", "felt"] as const;
+export const SPACER_KINDS = ["none", "battens", "mesh", "dimpled"] as const;
+export const LUMBER_NOMINALS = ["1x3", "1x4", "2x2", "2x4"] as const;
+export const PANEL_SYSTEMS = ["standing-seam", "exposed-fastener"] as const;
+export const PANEL_STARTS = ["left", "right", "centred"] as const;
+export const PENETRATION_KINDS = ["pipe", "chimney", "skylight", "vent", "other"] as const;
+export const CLIMATE_ZONE_RE = /^[1-8][ABC]?$/;
+
+const id = z.string({ error: "Required" }).min(1, "Required");
+const size = z.number({ error: "Enter a number" }).min(0, "Must not be negative");
+const positive = z.number({ error: "Enter a number" }).positive("Must be more than 0");
+const pct = z.number({ error: "Enter a number" }).min(0, "Must not be negative").max(100, "At most 100");
+const fraction = z.number({ error: "Enter a number" }).min(0).max(1);
+const emittance = z.number({ error: "Enter a number" }).min(0.01, "At least 0.01").max(1, "At most 1");
+
+// ---------------------------------------------------------------------------------------------------
+// rules
+// ---------------------------------------------------------------------------------------------------
+
+const roll = (d: { rollWidthIn: number; rollLengthFt: number; sideLapIn: number; endLapIn: number }) =>
+  z
+    .object({
+      rollWidthIn: positive.default(d.rollWidthIn),
+      rollLengthFt: positive.default(d.rollLengthFt),
+      sideLapIn: size.default(d.sideLapIn),
+      endLapIn: size.default(d.endLapIn),
+    })
+    .prefault({});
+
+export const rulesSchema = z
+  .object({
+    /** Waste, percent [common practice]. */
+    waste: z
+      .object({
+        underlaymentPct: pct.default(10),
+        iceBarrierPct: pct.default(5),
+        meshPct: pct.default(10),
+        dimpledPct: pct.default(10),
+        foilPct: pct.default(10),
+        battensPct: pct.default(10),
+        fastenersPct: pct.default(5),
+        deckPct: pct.default(10),
+        trimPct: pct.default(0),
+      })
+      .prefault({}),
+    /** Underlayment rolls: width, length, side lap (between courses) and end lap [common practice; NRCA for felt laps]. */
+    underlayment: z
+      .object({
+        selfAdhered: roll({ rollWidthIn: 36, rollLengthFt: 65, sideLapIn: 3.5, endLapIn: 6 }),
+        synthetic: roll({ rollWidthIn: 48, rollLengthFt: 250, sideLapIn: 4, endLapIn: 6 }),
+        felt30: roll({ rollWidthIn: 36, rollLengthFt: 72, sideLapIn: 2, endLapIn: 6 }),
+        felt15: roll({ rollWidthIn: 36, rollLengthFt: 144, sideLapIn: 2, endLapIn: 6 }),
+      })
+      .prefault({}),
+    /** Ice barrier membrane and where it reaches (IRC R905.1.2: 24 in inside the exterior wall). */
+    iceBarrier: z
+      .object({
+        rollWidthIn: positive.default(36),
+        rollLengthFt: positive.default(65),
+        sideLapIn: size.default(3.5),
+        endLapIn: size.default(6),
+        insideWallIn: size.default(24),
+      })
+      .prefault({}),
+    /** Spacer mats, butted not lapped [common practice; sizes maker-dependent, editable]. */
+    mesh: roll({ rollWidthIn: 39, rollLengthFt: 75, sideLapIn: 0, endLapIn: 0 }),
+    dimpled: roll({ rollWidthIn: 48, rollLengthFt: 50, sideLapIn: 0, endLapIn: 0 }),
+    /** Radiant barrier foil roll [common practice]. */
+    foil: roll({ rollWidthIn: 48, rollLengthFt: 125, sideLapIn: 2, endLapIn: 6 }),
+    battens: z
+      .object({
+        stockLengthFt: positive.default(8),
+        fastenerSpacingIn: positive.default(24),
+        counterBattenSpacingIn: positive.default(24),
+      })
+      .prefault({}),
+    trim: z
+      .object({
+        stockLengthFt: positive.default(10),
+        endLapIn: size.default(3),
+        fastenerSpacingIn: positive.default(12),
+      })
+      .prefault({}),
+    sealant: z
+      .object({
+        /** Linear feet of bead per tube [common practice]. */
+        lfPerTube: positive.default(25),
+        /** Bead per trim end lap, ft [common practice]. */
+        lfPerTrimLap: size.default(1),
+        lfPerPipe: size.default(3),
+        lfPerChimney: size.default(15),
+        lfPerSkylight: size.default(15),
+        lfPerOther: size.default(3),
+      })
+      .prefault({}),
+    butyl: z.object({ rollLengthFt: positive.default(50) }).prefault({}),
+    vents: z
+      .object({
+        /** Vent product net free area per foot [common practice; product-dependent]. */
+        ridgeNfaPerFtSqIn: size.default(18),
+        intakeNfaPerFtSqIn: size.default(9),
+      })
+      .prefault({}),
+    panels: z
+      .object({
+        maxLengthFt: positive.default(40),
+        longPanelInfoFt: positive.default(30),
+        hemAllowanceIn: size.default(0),
+      })
+      .prefault({}),
+    clips: z
+      .object({
+        spacingIn: z
+          .object({ field: positive.default(24), edge: positive.default(16), corner: positive.default(12) })
+          .prefault({}),
+        screwsPerClip: z.number().int().min(0).default(2),
+      })
+      .prefault({}),
+    exposedFastener: z
+      .object({
+        screwsPerSquare: z
+          .object({ field: size.default(80), edge: size.default(100), corner: size.default(120) })
+          .prefault({}),
+      })
+      .prefault({}),
+    fasteners: z.object({ screwsPerBox: z.number().int().min(1).default(250), clipsPerBox: z.number().int().min(1).default(1) }).prefault({}),
+    deck: z.object({ sheetSqFt: positive.default(32) }).prefault({}),
+  })
+  .prefault({});
+export type Rules = z.output<typeof rulesSchema>;
+
+// ---------------------------------------------------------------------------------------------------
+// site
+// ---------------------------------------------------------------------------------------------------
+
+const codeEdition = z.preprocess(
+  (v) => (typeof v === "string" && /^\d{4}$/.test(v.trim()) ? Number(v) : v),
+  z.union(CODE_EDITIONS.map((y) => z.literal(y)) as unknown as [z.ZodLiteral<2012>, z.ZodLiteral<2015>, z.ZodLiteral<2018>, z.ZodLiteral<2021>, z.ZodLiteral<2024>], {
+    error: "Code edition must be one of 2012, 2015, 2018, 2021, 2024",
+  }),
+);
+
+export const siteSchema = z
+  .object({
+    atticType: z.enum(ATTIC_TYPES).default("vented"),
+    atticFloorAreaSqFt: size.optional(),
+    climateZone: z
+      .string()
+      .trim()
+      .toUpperCase()
+      .regex(CLIMATE_ZONE_RE, 'Use an IECC climate zone such as "3A"')
+      .optional(),
+    /** Ice-dam risk stated for the site (IRC R905.1.2 areas). Unknown when left out. */
+    iceDamRisk: z.boolean().optional(),
+    /** The user states the conditions of the IRC R806.2 exception (1/300) are met. */
+    ventException: z.boolean().default(false),
+    codeEdition: codeEdition.default(2021),
+    coolRoofRequired: z.boolean().default(false),
+    /** A Class I or II vapour retarder on the warm side (for the R806.2 exception in zones 6–8). */
+    vaporRetarder: z.boolean().optional(),
+    existingLayers: z.number().int().min(0).max(10).default(1),
+    tearOff: z.boolean().default(true),
+    wind: z
+      .object({
+        ratedAssemblyRequired: z.boolean().default(false),
+        basicWindSpeedMph: size.optional(),
+        exposure: z.enum(["B", "C", "D"]).optional(),
+        leastHorizontalDimensionFt: positive.optional(),
+        meanRoofHeightFt: positive.optional(),
+      })
+      .prefault({}),
+  })
+  .prefault({});
+
+// ---------------------------------------------------------------------------------------------------
+// planes
+// ---------------------------------------------------------------------------------------------------
+
+export const penetrationSchema = z.object({
+  id: z.string().optional(),
+  kind: z.enum(PENETRATION_KINDS).default("pipe"),
+  /** Pipe outside diameter, inches. */
+  diameterIn: size.optional(),
+  /** Width across the slope (perpendicular to the slope), inches: a chimney or curb. */
+  widthIn: size.optional(),
+  /** Length up the slope, inches. */
+  lengthIn: size.optional(),
+  count: z.number().int().min(1).default(1),
+});
+
+const edgeTypeOverrides = z.record(z.string().regex(/^\d+$/, "Edge numbers are whole numbers"), z.enum(EDGE_TYPES));
+
+export const planeSchema = z.object({
+  id,
+  name: z.string().max(120).default(""),
+  pitch: z.number({ error: "Enter a number" }).min(0, "Pitch must be 0 or more").max(24, "Pitch must be at most 24"),
+  outline: z
+    .array(z.tuple([z.number({ error: "Enter a number" }), z.number({ error: "Enter a number" })]), { error: "Required" })
+    .min(3, "A plane needs at least 3 corners")
+    .max(200, "At most 200 corners"),
+  eaveEdge: z.number({ error: "Enter a number" }).int("Must be a whole number").min(0, "Must be 0 or more"),
+  baseElevationFt: z.number({ error: "Enter a number" }).default(0),
+  eaveOverhangIn: size.default(12),
+  /** User's edge types by edge number (edge i runs from corner i to corner i + 1). */
+  edgeTypes: edgeTypeOverrides.default({}),
+  stackId: id.optional(),
+  penetrations: z.array(penetrationSchema).max(200).default([]),
+});
+
+// ---------------------------------------------------------------------------------------------------
+// stacks
+// ---------------------------------------------------------------------------------------------------
+
+const battensSchema = z
+  .object({
+    nominal: z.enum(LUMBER_NOMINALS).default("1x4"),
+    spacingIn: positive.default(24),
+    counterBattens: z.boolean().default(false),
+    counterBattenNominal: z.enum(LUMBER_NOMINALS).optional(),
+    /** Default: rules.battens.counterBattenSpacingIn (24 in). */
+    counterBattenSpacingIn: positive.optional(),
+    /** Preservative-treated lumber. */
+    treated: z.boolean().default(false),
+  })
+  .prefault({});
+
+export const stackSchema = z.object({
+  id,
+  name: z.string().max(120).optional(),
+  deck: z
+    .object({
+      action: z.enum(["keep", "repair", "replace"]).default("keep"),
+      material: z.enum(["plywood", "osb"]).default("plywood"),
+      thicknessIn: positive.default(0.5),
+      repairSharePct: pct.default(10),
+    })
+    .prefault({}),
+  underlayment: z
+    .object({
+      kind: z.enum(UNDERLAYMENT_KINDS).default("synthetic"),
+      highTemp: z.boolean().default(true),
+      /** Felt weight when kind is felt. */
+      feltNumber: z.union([z.literal(15), z.literal(30)]).default(30),
+      layers: z.number().int().min(1).max(2).default(1),
+      /** Ice barrier at the eaves; default: where the site states an ice-dam risk. */
+      iceBarrier: z.boolean().optional(),
+    })
+    .prefault({}),
+  spacer: z
+    .object({
+      kind: z.enum(SPACER_KINDS).default("none"),
+      thicknessIn: positive.optional(),
+      openFraction: fraction.optional(),
+      battens: battensSchema,
+    })
+    .prefault({}),
+  radiantBarrier: z
+    .object({
+      kind: z.enum(["none", "foil"]).default("none"),
+      position: z.enum(["on-deck", "under-panels"]).default("on-deck"),
+      reflectiveFace: z.enum(["up", "down"]).default("up"),
+      emittance: emittance.default(0.05),
+    })
+    .prefault({}),
+  panel: z
+    .object({
+      system: z.enum(PANEL_SYSTEMS).default("standing-seam"),
+      coverageWidthIn: positive.max(60, "At most 60 in").default(16),
+      gauge: z.number({ error: "Enter a number" }).positive().default(24),
+      /** Metallic-coated steel (the default) or another metal; treated lumber is checked against steel. */
+      substrate: z.enum(["metallic-coated-steel", "aluminum", "copper", "zinc"]).default("metallic-coated-steel"),
+      solarReflectance: fraction.default(0.3),
+      thermalEmittance: fraction.default(0.85),
+      lapSealant: z.boolean().default(false),
+      minPitch: z.number().min(0).max(24).optional(),
+      panelUndersideEmittance: emittance.default(0.9),
+      clipSpacingIn: z.object({ field: positive.optional(), edge: positive.optional(), corner: positive.optional() }).prefault({}),
+      screwsPerSquare: z.object({ field: size.optional(), edge: size.optional(), corner: size.optional() }).prefault({}),
+      hemAllowanceIn: size.optional(),
+      maxLengthFt: positive.optional(),
+      start: z.enum(PANEL_STARTS).default("left"),
+    })
+    .prefault({}),
+  ventilation: z
+    .object({
+      intakeNfaPerFtSqIn: size.optional(),
+      exhaustNfaPerFtSqIn: size.optional(),
+      eaveOpen: z.boolean().default(true),
+      topOpen: z.boolean().default(true),
+      ventHips: z.boolean().default(false),
+      ventHeadwalls: z.boolean().default(false),
+      /** The assembly counts on the above-deck channel as ventilation. */
+      aboveDeckClaimed: z.boolean().default(false),
+    })
+    .prefault({}),
+});
+
+// ---------------------------------------------------------------------------------------------------
+// the whole input
+// ---------------------------------------------------------------------------------------------------
+
+const baseShape = {
+  site: siteSchema,
+  planes: z.array(planeSchema, { error: "Required" }).min(1, "Add at least one roof plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
+  stacks: z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly"),
+  defaultStackId: id,
+  rules: rulesSchema,
+};
+
+type BaseOut = {
+  planes: z.output<typeof planeSchema>[];
+  stacks: z.output<typeof stackSchema>[];
+  defaultStackId: string;
+};
+
+function checkInput(v: BaseOut, ctx: z.RefinementCtx) {
+  const stackIds = new Set<string>();
+  v.stacks.forEach((s, i) => {
+    if (stackIds.has(s.id)) ctx.addIssue({ code: "custom", message: "Duplicate assembly id", path: ["stacks", i, "id"] });
+    stackIds.add(s.id);
+  });
+  if (!stackIds.has(v.defaultStackId)) {
+    ctx.addIssue({ code: "custom", message: `Unknown assembly "${v.defaultStackId}"`, path: ["defaultStackId"] });
+  }
+  const planeIds = new Set<string>();
+  v.planes.forEach((p, i) => {
+    if (planeIds.has(p.id)) ctx.addIssue({ code: "custom", message: "Duplicate plane id", path: ["planes", i, "id"] });
+    planeIds.add(p.id);
+    if (p.stackId !== undefined && !stackIds.has(p.stackId)) {
+      ctx.addIssue({ code: "custom", message: `Unknown assembly "${p.stackId}"`, path: ["planes", i, "stackId"] });
+    }
+    const n = p.outline.length;
+    if (p.eaveEdge >= n) {
+      ctx.addIssue({ code: "custom", message: `The eave edge must be an edge number from 0 to ${n - 1}`, path: ["planes", i, "eaveEdge"] });
+      return;
+    }
+    for (const key of Object.keys(p.edgeTypes)) {
+      if (Number(key) >= n) {
+        ctx.addIssue({ code: "custom", message: `There is no edge ${key} (edges 0 to ${n - 1})`, path: ["planes", i, "edgeTypes", key] });
+      }
+    }
+    // The geometric checks (self-intersection, zero area, a corner below the eave line).
+    if (!(p.pitch >= 0 && p.pitch <= 24) || n < 3) return; // reported by the field's own check
+    const g = planeGeometry(p, i);
+    if (isGeometryError(g)) ctx.addIssue({ code: "custom", message: g.reason, path: g.path });
+  });
+}
+
+export const takeoffInputSchema = z.object(baseShape).superRefine(checkInput);
+export type TakeoffInput = z.output<typeof takeoffInputSchema>;
+export type TakeoffInputRaw = z.input<typeof takeoffInputSchema>;
+export type PlaneInput = TakeoffInput["planes"][number];
+export type StackInput = TakeoffInput["stacks"][number];
+export type SiteInput = TakeoffInput["site"];
+
+export const gapStudyInputSchema = z
+  .object({ ...baseShape, planeIds: z.array(id, { error: "Required" }).min(1, "Choose at least one plane") })
+  .superRefine((v, ctx) => {
+    checkInput(v, ctx);
+    const known = new Set(v.planes.map((p) => p.id));
+    v.planeIds.forEach((pid, i) => {
+      if (!known.has(pid)) ctx.addIssue({ code: "custom", message: `Unknown plane "${pid}"`, path: ["planeIds", i] });
+    });
+  });
+export type GapStudyInput = z.output<typeof gapStudyInputSchema>;
+export type GapStudyInputRaw = z.input<typeof gapStudyInputSchema>;

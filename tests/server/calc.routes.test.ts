@@ -1,0 +1,92 @@
+import { beforeEach, describe, expect, it } from "vitest";
+import request from "supertest";
+import { createTestApp } from "../helpers/app";
+import { signedInAgent } from "../helpers/auth";
+import { truncateAll } from "../helpers/db";
+import { gableRoof } from "../../shared/engine/roof/generators";
+import { computeTakeoff } from "../../shared/engine/takeoff";
+
+beforeEach(truncateAll);
+
+const stack = {
+  id: "s1",
+  name: "Mesh and foil",
+  underlayment: { kind: "synthetic", highTemp: true },
+  spacer: { kind: "mesh" },
+  radiantBarrier: { kind: "foil", position: "on-deck", reflectiveFace: "up" },
+  panel: { system: "standing-seam", coverageWidthIn: 16, gauge: 24, solarReflectance: 0.3, thermalEmittance: 0.85 },
+};
+
+const gableInput = () => ({
+  site: { atticType: "vented", climateZone: "4A" },
+  planes: gableRoof(40, 30, 6),
+  stacks: [stack],
+  defaultStackId: "s1",
+});
+
+describe("POST /api/calc/takeoff", () => {
+  it.each(["owner", "estimator", "crew"] as const)("returns the engine's result to a signed-in %s", async (role) => {
+    const { agent, token } = await signedInAgent({ role });
+    const res = await agent.post("/api/calc/takeoff").set("X-CSRF-Token", token).send(gableInput());
+    expect(res.status).toBe(200);
+    const expected = computeTakeoff(gableInput());
+    expect(expected.ok).toBe(true);
+    // The route is the engine: same input, same numbers.
+    expect(res.body.data).toEqual(JSON.parse(JSON.stringify(expected.ok && expected.result)));
+    // 40 × 30 ft gable at 6/12: plan 1200 ft², slope factor √(144+36)/12 = 1.1180 (rafter tables), sloped 1341.6 ft².
+    expect(res.body.data.totals.planAreaSqFt).toBeCloseTo(1200, 6);
+    expect(res.body.data.totals.slopedAreaSqFt).toBeCloseTo(1200 * Math.sqrt(180) / 12, 6);
+    // One ridge of 40 ft, counted once although two planes share it.
+    expect(res.body.data.edgeTotals.ridgeLf).toBeCloseTo(40, 6);
+  });
+
+  it("answers bad input with 400 and the field path", async () => {
+    const { agent, token } = await signedInAgent();
+    const input = gableInput();
+    input.planes[1].pitch = 25;
+    const res = await agent.post("/api/calc/takeoff").set("X-CSRF-Token", token).send(input);
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toContain("planes.1.pitch");
+  });
+
+  it("answers an unknown stack id with 400 at the plane's stackId", async () => {
+    const { agent, token } = await signedInAgent();
+    const input = gableInput();
+    (input.planes[0] as { stackId?: string }).stackId = "nope";
+    const res = await agent.post("/api/calc/takeoff").set("X-CSRF-Token", token).send(input);
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toContain("planes.0.stackId");
+  });
+
+  it("needs a session (401) and the CSRF token (403)", async () => {
+    expect((await request(createTestApp()).post("/api/calc/takeoff").send(gableInput())).status).toBe(401);
+    const { agent } = await signedInAgent();
+    expect((await agent.post("/api/calc/takeoff").send(gableInput())).status).toBe(403);
+  });
+});
+
+describe("POST /api/calc/gap-study", () => {
+  it("returns one entry per spacer option", async () => {
+    const { agent, token } = await signedInAgent();
+    const res = await agent
+      .post("/api/calc/gap-study")
+      .set("X-CSRF-Token", token)
+      .send({ ...gableInput(), planeIds: ["p-s"] });
+    expect(res.status).toBe(200);
+    expect(res.body.data.options.map((o: { spacer: string }) => o.spacer)).toEqual([
+      "none",
+      "battens",
+      "counter-battens",
+      "mesh",
+      "dimpled",
+    ]);
+    for (const o of res.body.data.options) expect(o.result.totals.planAreaSqFt).toBeGreaterThan(0);
+  });
+
+  it("answers a missing planeIds with 400", async () => {
+    const { agent, token } = await signedInAgent();
+    const res = await agent.post("/api/calc/gap-study").set("X-CSRF-Token", token).send(gableInput());
+    expect(res.status).toBe(400);
+    expect(Object.keys(res.body.error.fields)).toContain("planeIds");
+  });
+});
