@@ -33,6 +33,13 @@ function isDbDown(err: unknown): boolean {
   return false;
 }
 
+/** MariaDB gave up on a lock (deadlock 1213, lock wait timeout 1205): the transaction was rolled back. */
+function isLockConflict(err: unknown): boolean {
+  const e = err as { original?: { errno?: number }; parent?: { errno?: number } };
+  const errno = e?.original?.errno ?? e?.parent?.errno;
+  return errno === 1213 || errno === 1205;
+}
+
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;
   if (err instanceof ZodError) return badRequest("Please check the highlighted fields", zodFields(err));
@@ -45,6 +52,8 @@ export function toHttpError(err: unknown): HttpError {
     return new HttpError(409, "conflict", "A related record is missing or in use");
   if (err instanceof ValidationError) return badRequest(err.errors[0]?.message ?? "Invalid data");
   if (isDbDown(err)) return new HttpError(503, "unavailable", "The database is not answering; try again shortly");
+  if (isLockConflict(err))
+    return new HttpError(409, "write_conflict", "Another change was being saved at the same moment; nothing was saved, please try again");
   const e = err as { status?: number; statusCode?: number; expose?: boolean; type?: string; message?: string };
   const status = e?.status ?? e?.statusCode;
   if (status && status >= 400 && status < 500 && e.expose) {

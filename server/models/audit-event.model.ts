@@ -13,6 +13,8 @@ export class AuditEvent extends Model<InferAttributes<AuditEvent>, InferCreation
   declare actorId: number | null;
   declare entityType: string;
   declare entityId: string;
+  /** The job the event concerns (job, roof, quote events), for the job's log; null otherwise. */
+  declare jobId: CreationOptional<number | null>;
   declare action: string;
   declare changes: Record<string, unknown> | null;
   declare createdAt: CreationOptional<Date>;
@@ -26,6 +28,7 @@ export const initAuditEvent = (sequelize: Sequelize) =>
       actorId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
       entityType: { type: DataTypes.STRING(40), allowNull: false },
       entityId: { type: DataTypes.STRING(40), allowNull: false },
+      jobId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
       action: { type: DataTypes.STRING(60), allowNull: false },
       changes: { type: DataTypes.JSON, allowNull: true },
       createdAt: DataTypes.DATE,

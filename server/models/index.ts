@@ -3,6 +3,14 @@ import { Company, initCompany } from "./company.model";
 import { User, initUser } from "./user.model";
 import { Session, initSession } from "./session.model";
 import { AuditEvent, initAuditEvent } from "./audit-event.model";
+import { Customer, initCustomer } from "./customer.model";
+import { Job, initJob } from "./job.model";
+import { JobCrew, initJobCrew } from "./job-crew.model";
+import { Roof, initRoof } from "./roof.model";
+import { CatalogItem, initCatalogItem } from "./catalog-item.model";
+import { CatalogItemPrice, initCatalogItemPrice } from "./catalog-item-price.model";
+import { LaborRate, initLaborRate } from "./labor-rate.model";
+import { CompanySettings, initCompanySettings } from "./company-settings.model";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -15,7 +23,23 @@ export function initModels(sequelize: Sequelize): void {
   initAuditEvent(sequelize);
   Company.hasMany(User, { foreignKey: "companyId" });
   User.belongsTo(Company, { foreignKey: "companyId" });
+  initCustomer(sequelize);
+  initJob(sequelize);
+  initJobCrew(sequelize);
+  initRoof(sequelize);
+  Job.belongsTo(Customer, { as: "customer", foreignKey: "customerId" });
+  Job.belongsTo(User, { as: "estimator", foreignKey: "estimatorId" });
+  Job.belongsToMany(User, { as: "crew", through: JobCrew, foreignKey: "jobId", otherKey: "userId" });
+  Job.hasOne(Roof, { as: "roof", foreignKey: "jobId" });
+  AuditEvent.belongsTo(User, { as: "actor", foreignKey: "actorId", constraints: false });
+  initCatalogItem(sequelize);
+  initCatalogItemPrice(sequelize);
+  initLaborRate(sequelize);
+  initCompanySettings(sequelize);
+  CatalogItem.hasMany(CatalogItemPrice, { as: "prices", foreignKey: "itemId" });
   initialisedWith = sequelize;
 }
 
 export { Company, User, Session, AuditEvent };
+export { Customer, Job, JobCrew, Roof };
+export { CatalogItem, CatalogItemPrice, LaborRate, CompanySettings };

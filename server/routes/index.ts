@@ -3,6 +3,11 @@ import type { AppContext } from "../app";
 import { authRouter } from "./auth.routes";
 import { usersRouter } from "./users.routes";
 import { calcRouter } from "./calc.routes";
+import { customersRouter } from "./customers.routes";
+import { jobsRouter } from "./jobs.routes";
+import { auditRouter } from "./audit.routes";
+import { priceBookRouter } from "./price-book.routes";
+import { companyRouter } from "./company.routes";
 
 /** Every session-authenticated API route; mounted behind the session, passport and CSRF middleware. */
 export function apiRouter(ctx: AppContext): Router {
@@ -10,5 +15,10 @@ export function apiRouter(ctx: AppContext): Router {
   router.use("/auth", authRouter({ passport: ctx.passport, users: ctx.services.users, config: ctx.config }));
   router.use("/users", usersRouter(ctx.services.users));
   router.use("/calc", calcRouter());
+  router.use("/customers", customersRouter(ctx));
+  router.use("/jobs", jobsRouter(ctx));
+  router.use("/audit", auditRouter(ctx));
+  router.use("/price-book", priceBookRouter(ctx));
+  router.use("/company", companyRouter(ctx));
   return router;
 }

@@ -6,6 +6,8 @@ export interface AuditEntry {
   actorId: number | null;
   entityType: string;
   entityId: string | number;
+  /** The job this event concerns (shown in that job's log): set it for job, roof and quote events. */
+  jobId?: number | null;
   action: string;
   changes?: Record<string, unknown> | null;
 }
@@ -18,6 +20,7 @@ export async function recordAudit(entry: AuditEntry, transaction?: Transaction):
       actorId: entry.actorId,
       entityType: entry.entityType,
       entityId: String(entry.entityId),
+      jobId: entry.jobId ?? null,
       action: entry.action,
       changes: entry.changes ?? null,
     },

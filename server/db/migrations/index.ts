@@ -3,6 +3,16 @@ import * as m1 from "./20261201000001-create-companies";
 import * as m2 from "./20261201000002-create-users";
 import * as m3 from "./20261201000003-create-sessions";
 import * as m4 from "./20261201000004-create-audit-events";
+import * as a1 from "./20261201100001-create-customers";
+import * as a2 from "./20261201100002-create-jobs";
+import * as a3 from "./20261201100003-create-job-crew";
+import * as a4 from "./20261201100004-create-roofs";
+import * as a5 from "./20261201100005-add-audit-events-job-id";
+import * as b1 from "./20261201200001-create-catalog-items";
+import * as b2 from "./20261201200002-create-catalog-item-prices";
+import * as b3 from "./20261201200003-create-labor-rates";
+import * as b4 from "./20261201200004-add-companies-profile";
+import * as b5 from "./20261201200005-create-company-settings";
 
 interface Migration {
   name: string;
@@ -16,4 +26,14 @@ export const migrations: Migration[] = [
   { name: "20261201000002-create-users", ...m2 },
   { name: "20261201000003-create-sessions", ...m3 },
   { name: "20261201000004-create-audit-events", ...m4 },
+  { name: "20261201100001-create-customers", ...a1 },
+  { name: "20261201100002-create-jobs", ...a2 },
+  { name: "20261201100003-create-job-crew", ...a3 },
+  { name: "20261201100004-create-roofs", ...a4 },
+  { name: "20261201100005-add-audit-events-job-id", ...a5 },
+  { name: "20261201200001-create-catalog-items", ...b1 },
+  { name: "20261201200002-create-catalog-item-prices", ...b2 },
+  { name: "20261201200003-create-labor-rates", ...b3 },
+  { name: "20261201200004-add-companies-profile", ...b4 },
+  { name: "20261201200005-create-company-settings", ...b5 },
 ];

@@ -1,6 +1,8 @@
 import type { Sequelize } from "sequelize";
 import { Company, User } from "../../models/index";
 import { hashPassword } from "../../auth/password";
+import { seedDemoPriceBook } from "./demo-price-book";
+import { seedDemoJobs } from "./demo-jobs";
 
 /** Demo-only password for every demo account (shown in the README). Never used outside demo data. */
 export const DEMO_PASSWORD = "ridgewright-demo";
@@ -28,8 +30,18 @@ export async function seedDemo(sequelize: Sequelize, opts: { bcryptRounds: numbe
   await sequelize.transaction(async (transaction) => {
     const demo = await Company.create({ name: DEMO_COMPANY }, { transaction });
     const second = await Company.create({ name: SECOND_COMPANY }, { transaction });
-    for (const u of DEMO_USERS) await User.create({ ...u, companyId: demo.id, passwordHash }, { transaction });
+    const demoUsers = [];
+    for (const u of DEMO_USERS) demoUsers.push(await User.create({ ...u, companyId: demo.id, passwordHash }, { transaction }));
     for (const u of SECOND_COMPANY_USERS) await User.create({ ...u, companyId: second.id, passwordHash }, { transaction });
+    // The price book first: the demo roofs' takeoffs are computed with its rules.
+    await seedDemoPriceBook(sequelize, demo.id, transaction);
+    await seedDemoPriceBook(sequelize, second.id, transaction);
+    await seedDemoJobs(
+      sequelize,
+      demo.id,
+      demoUsers.map((u) => ({ id: u.id, email: u.email, name: u.name, role: u.role })),
+      transaction,
+    );
   });
   return true;
 }
