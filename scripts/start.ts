@@ -60,6 +60,11 @@ async function main() {
     stops.push(() => server.close());
 
     console.log(`\nRidgewright is running at ${server.url}`);
+    if (server.mailCatcher) {
+      console.log(`E-mail is caught, not delivered: SMTP on 127.0.0.1:${server.mailCatcher.port}, inbox at ${server.url}/dev/mail`);
+    } else {
+      console.log("E-mail goes out through SMTP_URL.");
+    }
     if (config.seedDemo) {
       console.log(`Demo sign-ins (demo data only), password "${DEMO_PASSWORD}":`);
       for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email}`);

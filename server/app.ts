@@ -6,6 +6,8 @@ import path from "node:path";
 import type { Sequelize } from "sequelize";
 import type { Config } from "./config";
 import type { Logger } from "./logger";
+import type { Mailer } from "./mail/mailer";
+import type { MailCatcher } from "./mail/catcher";
 import { createPassport } from "./auth/passport";
 import { csrfProtection } from "./middleware/csrf";
 import { errorHandler } from "./middleware/error-handler";
@@ -19,6 +21,10 @@ export interface AppDeps {
   logger: Logger;
   sequelize: Sequelize;
   sessionStore: Store;
+  /** Sends e-mail now (the outbox worker uses it; request handlers enqueue instead). */
+  mailer: Mailer;
+  /** The local mail catcher, when it is in use (no SMTP_URL): read by /api/dev/mail. */
+  mailCatcher?: MailCatcher;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
 }

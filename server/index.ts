@@ -9,10 +9,15 @@ import { initModels } from "./models/index";
 import { createSessionStore } from "./session-store";
 import { createApp } from "./app";
 import { seedDemo } from "./db/seeders/demo";
+import { createSmtpMailer } from "./mail/mailer";
+import type { MailCatcher } from "./mail/catcher";
+import { OutboxWorker } from "./services/outbox.service";
 
 export interface RunningServer {
   server: Server;
   url: string;
+  /** The local mail catcher when no SMTP_URL is set (its inbox is at /dev/mail). */
+  mailCatcher?: MailCatcher;
   close(): Promise<void>;
 }
 
@@ -30,22 +35,63 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
     if (seeded) logger.info("demo data seeded");
   }
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
-  const app = createApp({ config, logger, sequelize, sessionStore, clientDir: path.join(root, "dist") });
+  // E-mail: a real SMTP server (SMTP_URL), else the local catcher in this process (kept in .data/mail).
+  let mailCatcher: MailCatcher | undefined;
+  if (config.mail.useCatcher) {
+    try {
+      // Loaded only when used: with SMTP_URL set, smtp-server and mailparser are never needed.
+      const { startMailCatcher } = await import("./mail/catcher");
+      mailCatcher = await startMailCatcher({
+        port: config.mail.catcherPort,
+        host: "127.0.0.1",
+        dir: config.env === "test" ? undefined : path.join(root, ".data/mail"),
+      });
+    } catch (err) {
+      sessionStore.stopExpiringSessions();
+      await sequelize.close();
+      const busy = (err as { code?: string }).code === "EADDRINUSE";
+      throw busy
+        ? new Error(`The mail catcher's port ${config.mail.catcherPort} is in use: set MAIL_CATCHER_PORT (0 = any free port) or SMTP_URL`)
+        : err;
+    }
+    if (config.env === "production") logger.warn("no SMTP_URL: e-mail goes to the local mail catcher, not to anyone's inbox");
+  }
+  const mailer = mailCatcher
+    ? createSmtpMailer({ host: "127.0.0.1", port: mailCatcher.port }, { from: config.mail.from })
+    : createSmtpMailer(config.mail.smtpUrl!, { from: config.mail.from });
+  const outbox = new OutboxWorker({
+    sequelize,
+    mailer,
+    logger,
+    from: config.mail.from,
+    pollMs: config.outbox.pollMs,
+    maxAttempts: config.outbox.maxAttempts,
+    tagForCatcher: Boolean(mailCatcher),
+  });
+  const app = createApp({ config, logger, sequelize, sessionStore, mailer, mailCatcher, clientDir: path.join(root, "dist") });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
+  }).catch(async (err) => {
+    await mailCatcher?.close();
+    throw err;
   });
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.port;
+  outbox.start();
   return {
     server,
     url: `http://localhost:${port}`,
+    mailCatcher,
     async close() {
       sessionStore.stopExpiringSessions();
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
         server.closeAllConnections();
       });
+      await outbox.stop(); // lets a delivery in progress finish and record its outcome
+      mailer.close?.();
+      await mailCatcher?.close();
       await sequelize.close();
     },
   };

@@ -11,6 +11,7 @@ import { CatalogItem, initCatalogItem } from "./catalog-item.model";
 import { CatalogItemPrice, initCatalogItemPrice } from "./catalog-item-price.model";
 import { LaborRate, initLaborRate } from "./labor-rate.model";
 import { CompanySettings, initCompanySettings } from "./company-settings.model";
+import { initMailModels } from "./mail.models";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -37,6 +38,7 @@ export function initModels(sequelize: Sequelize): void {
   initLaborRate(sequelize);
   initCompanySettings(sequelize);
   CatalogItem.hasMany(CatalogItemPrice, { as: "prices", foreignKey: "itemId" });
+  initMailModels(sequelize);
   initialisedWith = sequelize;
 }
 

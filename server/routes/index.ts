@@ -8,6 +8,7 @@ import { jobsRouter } from "./jobs.routes";
 import { auditRouter } from "./audit.routes";
 import { priceBookRouter } from "./price-book.routes";
 import { companyRouter } from "./company.routes";
+import { mailRouter } from "./mail.routes";
 
 /** Every session-authenticated API route; mounted behind the session, passport and CSRF middleware. */
 export function apiRouter(ctx: AppContext): Router {
@@ -20,5 +21,6 @@ export function apiRouter(ctx: AppContext): Router {
   router.use("/audit", auditRouter(ctx));
   router.use("/price-book", priceBookRouter(ctx));
   router.use("/company", companyRouter(ctx));
+  router.use(mailRouter(ctx)); // /auth/forgot, /auth/reset, /dev/mail
   return router;
 }

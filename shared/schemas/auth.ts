@@ -70,3 +70,19 @@ export const changePasswordInputSchema = z
     message: "Choose a password different from the current one",
   });
 export type ChangePasswordInput = z.infer<typeof changePasswordInputSchema>;
+
+/** "Forgot password": where to send a reset link (the answer is the same whether or not the e-mail is known). */
+export const forgotPasswordInputSchema = z.object({ email: emailSchema });
+export type ForgotPasswordInput = z.infer<typeof forgotPasswordInputSchema>;
+
+/** A new password with the one-time token from the reset e-mail's link. */
+export const resetPasswordInputSchema = z.object({
+  token: z
+    .string({ error: "Required" })
+    .trim()
+    .min(1, "Required")
+    .max(200, "That reset link is not valid")
+    .regex(/^[A-Za-z0-9_-]+$/, "That reset link is not valid"),
+  password: passwordSchema,
+});
+export type ResetPasswordInput = z.infer<typeof resetPasswordInputSchema>;

@@ -4,6 +4,9 @@ import { createLogger } from "../../server/logger";
 import { createApp } from "../../server/app";
 import { createSessionStore } from "../../server/session-store";
 import { testSequelize } from "./db";
+import { createSmtpMailer, type Mailer } from "../../server/mail/mailer";
+import { createMailCatcher, type MailCatcher } from "../../server/mail/catcher";
+import { OutboxWorker, type OutboxRunResult, type OutboxWorkerOptions } from "../../server/services/outbox.service";
 
 const stores: Array<ReturnType<typeof createSessionStore>> = [];
 
@@ -11,15 +14,73 @@ export function testConfig(overrides: Partial<Config> = {}): Config {
   return { ...loadConfig(), ...overrides };
 }
 
-/** The real app on the real test database, without listening. */
-export function createTestApp(overrides: Partial<Config> = {}): Express {
+let catcher: MailCatcher | null = null;
+let smtp: { port: number; mailer: Mailer } | null = null;
+
+/** This test file's local SMTP catcher (memory only, port 0); it listens from the first send on. */
+export function testMailCatcher(): MailCatcher {
+  return (catcher ??= createMailCatcher({ port: 0 }));
+}
+
+/** Starts this file's catcher if it is not listening yet. */
+export async function startTestMailCatcher(): Promise<MailCatcher> {
+  const c = testMailCatcher();
+  await c.listen();
+  return c;
+}
+
+/** Sends through real SMTP to this file's catcher (started on first use). */
+export const testMailer: Mailer = {
+  async send(msg) {
+    const c = await startTestMailCatcher();
+    if (!smtp || smtp.port !== c.port) {
+      smtp = { port: c.port, mailer: createSmtpMailer({ host: "127.0.0.1", port: c.port }, { from: testConfig().mail.from }) };
+    }
+    return smtp.mailer.send(msg);
+  },
+};
+
+/** An outbox worker on the test database that sends to this file's catcher (call runOnce() yourself). */
+export function testOutboxWorker(options: Partial<OutboxWorkerOptions> = {}): OutboxWorker {
+  const config = testConfig();
+  return new OutboxWorker({
+    sequelize: testSequelize(),
+    mailer: testMailer,
+    from: config.mail.from,
+    maxAttempts: config.outbox.maxAttempts,
+    tagForCatcher: true,
+    ...options,
+  });
+}
+
+/** Delivers every due outbox e-mail now, as the server's worker would within its poll interval. */
+export async function deliverOutbox(): Promise<OutboxRunResult> {
+  return testOutboxWorker().runOnce();
+}
+
+/**
+ * The real app on the real test database, without listening. E-mail goes through real SMTP to this
+ * file's catcher, which /api/dev/mail shows unless the config names an SMTP_URL.
+ */
+export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: Mailer } = {}): Express {
   const sequelize = testSequelize();
   const config = testConfig(overrides);
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
   stores.push(sessionStore);
-  return createApp({ config, logger: createLogger("silent"), sequelize, sessionStore });
+  return createApp({
+    config,
+    logger: createLogger("silent"),
+    sequelize,
+    sessionStore,
+    mailer: deps.mailer ?? testMailer,
+    mailCatcher: config.mail.useCatcher ? testMailCatcher() : undefined,
+  });
 }
 
 export function stopTestStores(): void {
   for (const s of stores.splice(0)) s.stopExpiringSessions();
+  smtp?.mailer.close?.();
+  smtp = null;
+  void catcher?.close();
+  catcher = null;
 }

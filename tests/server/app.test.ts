@@ -1,6 +1,6 @@
 import { afterAll, beforeEach, describe, expect, it } from "vitest";
 import request from "supertest";
-import { createTestApp, testConfig } from "../helpers/app";
+import { createTestApp, testConfig, testMailer } from "../helpers/app";
 import { signedInAgent } from "../helpers/auth";
 import { truncateAll } from "../helpers/db";
 import { createSequelize } from "../../server/db/sequelize";
@@ -26,7 +26,7 @@ describe("GET /api/health", () => {
     store.stopExpiringSessions();
     await down.close();
   });
-  const downApp = createApp({ config: testConfig(), logger: createLogger("silent"), sequelize: down, sessionStore: store });
+  const downApp = createApp({ config: testConfig(), logger: createLogger("silent"), sequelize: down, sessionStore: store, mailer: testMailer });
 
   it("answers 503 with db down when the database is unreachable", async () => {
     const res = await request(downApp).get("/api/health");

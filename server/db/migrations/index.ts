@@ -13,6 +13,8 @@ import * as b2 from "./20261201200002-create-catalog-item-prices";
 import * as b3 from "./20261201200003-create-labor-rates";
 import * as b4 from "./20261201200004-add-companies-profile";
 import * as b5 from "./20261201200005-create-company-settings";
+import * as m30001 from "./20261201300001-create-outbox-messages";
+import * as m30002 from "./20261201300002-create-password-reset-tokens";
 
 interface Migration {
   name: string;
@@ -36,4 +38,6 @@ export const migrations: Migration[] = [
   { name: "20261201200003-create-labor-rates", ...b3 },
   { name: "20261201200004-add-companies-profile", ...b4 },
   { name: "20261201200005-create-company-settings", ...b5 },
+  { name: "20261201300001-create-outbox-messages", ...m30001 },
+  { name: "20261201300002-create-password-reset-tokens", ...m30002 },
 ];
