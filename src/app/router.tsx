@@ -38,6 +38,28 @@ export function createAppRoutes(qc: QueryClient): RouteObject[] {
                   lazy: () => import("@/app/routes/jobs").then((m) => ({ Component: m.JobsRoute })),
                 },
                 {
+                  path: "/jobs/:jobId/:section?",
+                  lazy: () => import("@/app/routes/jobs/job-workspace").then((m) => ({ Component: m.JobWorkspaceRoute })),
+                },
+                {
+                  element: <RoleGate screen="customers" name="Customers" />,
+                  children: [
+                    {
+                      path: paths.customers,
+                      lazy: () => import("@/app/routes/customers").then((m) => ({ Component: m.CustomersRoute })),
+                    },
+                  ],
+                },
+                {
+                  element: <RoleGate screen="company" name="The company profile" />,
+                  children: [
+                    {
+                      path: paths.company,
+                      lazy: () => import("@/app/routes/company").then((m) => ({ Component: m.CompanyRoute })),
+                    },
+                  ],
+                },
+                {
                   element: <RoleGate screen="approvals" name="Approvals" />,
                   children: [
                     {

@@ -8,7 +8,28 @@ export const paths = {
   priceBook: "/price-book",
   team: "/team",
   account: "/account",
+  customers: "/customers",
+  company: "/company",
+  job: (jobId: number | string) => `/jobs/${jobId}`,
+  jobSection: (jobId: number | string, section: JobSection) => `/jobs/${jobId}/${section}`,
 } as const;
+
+/** The job workspace's sections, in order; the slug is the last part of the URL. */
+export const JOB_SECTIONS = [
+  { slug: "site", label: "Site" },
+  { slug: "roof-sketch", label: "Roof sketch" },
+  { slug: "layer-stack", label: "Layer stack" },
+  { slug: "gap-study", label: "Gap study" },
+  { slug: "takeoff", label: "Takeoff" },
+  { slug: "pricing", label: "Pricing" },
+  { slug: "proposal", label: "Proposal" },
+  { slug: "files", label: "Files" },
+  { slug: "log", label: "Log" },
+] as const;
+export type JobSection = (typeof JOB_SECTIONS)[number]["slug"];
+
+/** Sections the crew may open (they never see prices or the office's working sections). */
+export const CREW_SECTIONS: readonly JobSection[] = ["site", "roof-sketch", "takeoff", "files"];
 
 /** Which roles may open each signed-in screen. The server refuses the same roles on the API. */
 export const screenAccess = {
@@ -17,6 +38,8 @@ export const screenAccess = {
   priceBook: ["owner", "estimator"],
   team: ["owner"],
   account: ROLES,
+  customers: ["owner", "estimator"],
+  company: ["owner"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Screen = keyof typeof screenAccess;
