@@ -13,7 +13,7 @@ process.env.NODE_ENV ??= "development";
 let db: LocalDb | null = null;
 if (!hasExternalDatabase()) {
   db = await startLocalMariaDb({
-    base: ".data/mariadb",
+    base: process.env.DB_DIR ?? ".data/mariadb",
     port: Number(process.env.DB_PORT ?? 3307),
     database: process.env.DB_NAME ?? "ridgewright",
     user: "app",

@@ -30,7 +30,7 @@ async function main() {
   try {
     if (!hasExternalDatabase()) {
       localDb = await startLocalMariaDb({
-        base: ".data/mariadb",
+        base: process.env.DB_DIR ?? ".data/mariadb",
         port: Number(process.env.DB_PORT ?? 3307),
         database: process.env.DB_NAME ?? "ridgewright",
         user: "app",
