@@ -1,11 +1,15 @@
 /**
  * Times the roof takeoff on a generated 100-plane roof: warm-up, then 200 runs; prints the median.
- * Target: under 5 ms per takeoff. Run: `npm run bench:engine` (tsx scripts/bench-engine.ts [planes] [runs]).
+ * Target: under 5 ms per takeoff. Then, in the same run, the HTTP round trip of POST /api/calc/takeoff
+ * against an authenticated echo of the same payload (POST /api/calc/echo) on the real app and a
+ * throwaway benchmark database: targets ratio ≤ 2 and the takeoff round trip under 100 ms.
+ * Run: `npm run bench:engine` (tsx scripts/bench-engine.ts [planes] [runs]).
  */
 import { performance } from "node:perf_hooks";
 import { z } from "zod";
 import { computeTakeoff } from "../shared/engine/takeoff";
 import { buildBenchRoof } from "../shared/engine/roof/bench-roof";
+import { startBenchServer } from "./lib/bench-server";
 
 const args = z
   .tuple([z.coerce.number().int().min(1).max(500).default(100), z.coerce.number().int().min(1).max(10_000).default(200)])
@@ -37,5 +41,41 @@ export function benchEngine(planes = planeCount, n = runs) {
   };
 }
 
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+/** Sequential round trips (one at a time, keep-alive) of the same payload to two routes, interleaved. */
+async function benchRoundTrip(planes: number, n: number) {
+  const server = await startBenchServer();
+  try {
+    const body = JSON.stringify(buildBenchRoof(planes));
+    const post = async (path: string) => {
+      const t0 = performance.now();
+      const res = await fetch(server.url + path, { method: "POST", headers: server.headers, body });
+      await res.arrayBuffer();
+      if (res.status !== 200) throw new Error(`${path} answered ${res.status}`);
+      return performance.now() - t0;
+    };
+    for (let i = 0; i < 20; i++) await post("/api/calc/takeoff"), await post("/api/calc/echo"); // warm-up
+    const takeoff: number[] = [];
+    const echo: number[] = [];
+    for (let i = 0; i < n; i++) {
+      takeoff.push(await post("/api/calc/takeoff"));
+      echo.push(await post("/api/calc/echo"));
+    }
+    return { bytes: body.length, takeoffMs: median(takeoff), echoMs: median(echo), runs: n };
+  } finally {
+    await server.close();
+  }
+}
+
 const r = benchEngine();
 console.log(`engine takeoff, ${r.planes} planes (${r.panels} panels, ${r.squares.toFixed(0)} squares), ${r.runs} runs: median ${r.medianMs.toFixed(2)} ms (p95 ${r.p95Ms.toFixed(2)} ms, min ${r.minMs.toFixed(2)} ms); target < 5 ms`);
+const rt = await benchRoundTrip(planeCount, Math.min(runs, 100));
+console.log(
+  `HTTP round trip, ${planeCount}-plane roof (${(rt.bytes / 1024).toFixed(0)} KB JSON), ${rt.runs} runs each: ` +
+    `POST /api/calc/takeoff median ${rt.takeoffMs.toFixed(2)} ms, authenticated echo ${rt.echoMs.toFixed(2)} ms, ` +
+    `ratio ${(rt.takeoffMs / rt.echoMs).toFixed(2)}; targets: ratio ≤ 2, round trip < 100 ms`,
+);

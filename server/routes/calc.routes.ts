@@ -27,6 +27,11 @@ export function calcRouter(): Router {
     res.json({ data: outcome.result });
   });
 
+  /** Returns the body as received: the transport and session cost of a calculation, for benchmarks. */
+  router.post("/echo", (req, res) => {
+    res.json({ data: requireBody(req) });
+  });
+
   router.post("/gap-study", (req, res) => {
     const outcome = computeGapStudy(requireBody(req));
     if (!outcome.ok) throw engineRefusal(outcome);

@@ -90,3 +90,16 @@ describe("POST /api/calc/gap-study", () => {
     expect(Object.keys(res.body.error.fields)).toContain("planeIds");
   });
 });
+
+describe("POST /api/calc/echo", () => {
+  it("returns the body as received to a signed-in user (the benchmark's baseline)", async () => {
+    const { agent, token } = await signedInAgent({ role: "crew" });
+    const res = await agent.post("/api/calc/echo").set("X-CSRF-Token", token).send(gableInput());
+    expect(res.status).toBe(200);
+    expect(res.body.data).toEqual(gableInput());
+  });
+
+  it("needs a session", async () => {
+    expect((await request(createTestApp()).post("/api/calc/echo").send({ a: 1 })).status).toBe(401);
+  });
+});
