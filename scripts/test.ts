@@ -5,32 +5,16 @@
  */
 import { spawn } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync, rmSync } from "node:fs";
-import { startLocalMariaDb } from "./lib/mariadb";
-import { resetTestDatabase } from "../tests/helpers/test-db";
+import { resetTestDatabase, startTestMariaDb, testEnv } from "../tests/helpers/test-db";
 
 async function main(): Promise<number> {
-  const db = await startLocalMariaDb({
-    base: process.env.TEST_DB_DIR ?? ".test-data/mariadb",
-    port: Number(process.env.TEST_DB_PORT ?? 3317),
-    database: "ridgewright_test",
-    user: "app_test",
-  });
+  const db = await startTestMariaDb();
   let passed = 0;
   let failed = 0;
   let skipped = 0;
   let exitCode = 1;
   try {
-    const env = {
-      ...process.env,
-      NODE_ENV: "test",
-      DB_HOST: db.host,
-      DB_PORT: String(db.port),
-      DB_NAME: db.database,
-      DB_USER: db.user,
-      DB_PASSWORD: db.password,
-            BCRYPT_ROUNDS: "4",
-      LOG_LEVEL: "silent",
-    };
+    const env = { ...process.env, ...testEnv(db) };
     await resetTestDatabase(env);
     mkdirSync(".test-data", { recursive: true });
     const report = `${process.env.TEST_DB_DIR ?? ".test-data/mariadb"}/vitest-report.json`;

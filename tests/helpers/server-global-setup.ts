@@ -1,5 +1,5 @@
-import { startLocalMariaDb, type LocalDb } from "../../scripts/lib/mariadb";
-import { resetTestDatabase } from "./test-db";
+import type { LocalDb } from "../../scripts/lib/mariadb";
+import { resetTestDatabase, startTestMariaDb, testEnv } from "./test-db";
 
 let db: LocalDb | null = null;
 
@@ -9,23 +9,8 @@ let db: LocalDb | null = null;
  */
 export async function setup() {
   if (process.env.DB_PORT && process.env.NODE_ENV === "test") return;
-  db = await startLocalMariaDb({
-    base: process.env.TEST_DB_DIR ?? ".test-data/mariadb",
-    port: Number(process.env.TEST_DB_PORT ?? 3317),
-    database: "ridgewright_test",
-    user: "app_test",
-    log: () => {},
-  });
-  Object.assign(process.env, {
-    NODE_ENV: "test",
-    DB_HOST: db.host,
-    DB_PORT: String(db.port),
-    DB_NAME: db.database,
-    DB_USER: db.user,
-    DB_PASSWORD: db.password,
-    BCRYPT_ROUNDS: "4",
-    LOG_LEVEL: "silent",
-  });
+  db = await startTestMariaDb(() => {});
+  Object.assign(process.env, testEnv(db));
   await resetTestDatabase(process.env);
 }
 
