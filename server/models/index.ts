@@ -12,6 +12,7 @@ import { CatalogItemPrice, initCatalogItemPrice } from "./catalog-item-price.mod
 import { LaborRate, initLaborRate } from "./labor-rate.model";
 import { CompanySettings, initCompanySettings } from "./company-settings.model";
 import { initMailModels } from "./mail.models";
+import { Approval, Quote, QuoteLine, QuoteOption, QuoteRevision, initQuoteModels } from "./quote.models";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -39,9 +40,18 @@ export function initModels(sequelize: Sequelize): void {
   initCompanySettings(sequelize);
   CatalogItem.hasMany(CatalogItemPrice, { as: "prices", foreignKey: "itemId" });
   initMailModels(sequelize);
+  initQuoteModels(sequelize);
+  Quote.hasMany(QuoteRevision, { as: "revisions", foreignKey: "quoteId" });
+  QuoteRevision.hasMany(QuoteOption, { as: "options", foreignKey: "revisionId" });
+  QuoteOption.hasMany(QuoteLine, { as: "lines", foreignKey: "optionId" });
+  QuoteRevision.belongsTo(User, { as: "creator", foreignKey: "createdBy", constraints: false });
+  QuoteRevision.belongsTo(User, { as: "submitter", foreignKey: "submittedBy", constraints: false });
+  QuoteRevision.belongsTo(User, { as: "approver", foreignKey: "approvedBy", constraints: false });
+  QuoteRevision.belongsTo(User, { as: "returner", foreignKey: "returnedBy", constraints: false });
   initialisedWith = sequelize;
 }
 
 export { Company, User, Session, AuditEvent };
 export { Customer, Job, JobCrew, Roof };
 export { CatalogItem, CatalogItemPrice, LaborRate, CompanySettings };
+export { Quote, QuoteRevision, QuoteOption, QuoteLine, Approval };

@@ -9,6 +9,8 @@ import { auditRouter } from "./audit.routes";
 import { priceBookRouter } from "./price-book.routes";
 import { companyRouter } from "./company.routes";
 import { mailRouter } from "./mail.routes";
+import { jobQuotesRouter, quotesRouter } from "./quotes.routes";
+import { approvalsRouter } from "./approvals.routes";
 
 /** Every session-authenticated API route; mounted behind the session, passport and CSRF middleware. */
 export function apiRouter(ctx: AppContext): Router {
@@ -17,10 +19,13 @@ export function apiRouter(ctx: AppContext): Router {
   router.use("/users", usersRouter(ctx.services.users));
   router.use("/calc", calcRouter());
   router.use("/customers", customersRouter(ctx));
+  router.use("/jobs/:jobId/quotes", jobQuotesRouter(ctx)); // before /jobs: the job's quotes
   router.use("/jobs", jobsRouter(ctx));
   router.use("/audit", auditRouter(ctx));
   router.use("/price-book", priceBookRouter(ctx));
   router.use("/company", companyRouter(ctx));
+  router.use("/quotes", quotesRouter(ctx));
+  router.use("/approvals", approvalsRouter(ctx));
   router.use(mailRouter(ctx)); // /auth/forgot, /auth/reset, /dev/mail
   return router;
 }

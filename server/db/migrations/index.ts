@@ -15,6 +15,11 @@ import * as b4 from "./20261201200004-add-companies-profile";
 import * as b5 from "./20261201200005-create-company-settings";
 import * as m30001 from "./20261201300001-create-outbox-messages";
 import * as m30002 from "./20261201300002-create-password-reset-tokens";
+import * as q1 from "./20261201400001-create-quotes";
+import * as q2 from "./20261201400002-create-quote-revisions";
+import * as q3 from "./20261201400003-create-quote-options";
+import * as q4 from "./20261201400004-create-quote-lines";
+import * as q5 from "./20261201400005-create-approvals";
 
 interface Migration {
   name: string;
@@ -40,4 +45,9 @@ export const migrations: Migration[] = [
   { name: "20261201200005-create-company-settings", ...b5 },
   { name: "20261201300001-create-outbox-messages", ...m30001 },
   { name: "20261201300002-create-password-reset-tokens", ...m30002 },
+  { name: "20261201400001-create-quotes", ...q1 },
+  { name: "20261201400002-create-quote-revisions", ...q2 },
+  { name: "20261201400003-create-quote-options", ...q3 },
+  { name: "20261201400004-create-quote-lines", ...q4 },
+  { name: "20261201400005-create-approvals", ...q5 },
 ];

@@ -3,6 +3,7 @@ import { Company, User } from "../../models/index";
 import { hashPassword } from "../../auth/password";
 import { seedDemoPriceBook } from "./demo-price-book";
 import { seedDemoJobs } from "./demo-jobs";
+import { seedDemoQuotes } from "./demo-quotes";
 
 /** Demo-only password for every demo account (shown in the README). Never used outside demo data. */
 export const DEMO_PASSWORD = "ridgewright-demo";
@@ -37,6 +38,12 @@ export async function seedDemo(sequelize: Sequelize, opts: { bcryptRounds: numbe
     await seedDemoPriceBook(sequelize, demo.id, transaction);
     await seedDemoPriceBook(sequelize, second.id, transaction);
     await seedDemoJobs(
+      sequelize,
+      demo.id,
+      demoUsers.map((u) => ({ id: u.id, email: u.email, name: u.name, role: u.role })),
+      transaction,
+    );
+    await seedDemoQuotes(
       sequelize,
       demo.id,
       demoUsers.map((u) => ({ id: u.id, email: u.email, name: u.name, role: u.role })),

@@ -1,0 +1,334 @@
+/**
+ * `npm run bench:api`: API latency with 10,000 jobs, in a database of its own (`<DB_NAME>_bench`, never the
+ * demo one), dropped and made new on each run.
+ *
+ * Seeds one invented company (bulk inserts): 2,000 customers, 10,000 jobs spread over every status, a
+ * measured roof on 600 of them, the demo price book. Starts the app in this process on a free port, signs in
+ * as the owner and, with autocannon at 20 connections for about 10 s each, measures:
+ *   - GET /api/health (the floor: no session, one `SELECT 1`)
+ *   - GET /api/jobs?page=3&pageSize=50&status=estimating&sort=-updatedAt
+ *   - GET /api/jobs?q=heron&pageSize=50
+ *   - PUT /api/jobs/:id/roof, a 12-plane roof with its takeoff (each connection saves its own job and sends
+ *     the version the last save returned, so no save is refused as stale)
+ * and prints p50/p95/p99 latency, requests per second, errors and the ratio to health.
+ * Targets: list p95 < 50 ms, roof save p95 < 100 ms.
+ *
+ * Database: like `npm start` (the local MariaDB in DB_DIR, default .data/mariadb on DB_PORT 3307; started
+ * when it is not running, stopped again after) unless DATABASE_URL or DB_HOST names another server.
+ */
+import autocannon from "autocannon";
+import type { AddressInfo } from "node:net";
+import { loadDotEnv } from "./lib/env";
+import { startLocalMariaDb, type LocalDb } from "./lib/mariadb";
+import { hasExternalDatabase, loadConfig } from "../server/config";
+import { createSequelize } from "../server/db/sequelize";
+import { createMigrator } from "../server/db/migrator";
+import { Company, Customer, Job, Roof, User, initModels } from "../server/models/index";
+import { hashPassword } from "../server/auth/password";
+import { createSessionStore } from "../server/session-store";
+import { createApp } from "../server/app";
+import { createLogger } from "../server/logger";
+import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
+import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
+import { gableRoof, hipRoof, lShapeGableRoof, shedRoof } from "../shared/engine/roof/generators";
+import { jobSiteSchema, JOB_STATUSES, type JobStatus } from "../shared/schemas/job";
+import { roofSaveSchema, type RoofSaveValues } from "../shared/schemas/roof";
+
+loadDotEnv();
+process.env.NODE_ENV ??= "development";
+
+const JOBS = 10_000;
+const CUSTOMERS = 2_000;
+const ROOFED = 600;
+const CONNECTIONS = 20;
+const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
+const PASSWORD = "bench-only-password";
+
+// ---- invented data ------------------------------------------------------------------------------------
+
+const FIRST = ["Avel", "Brisa", "Corin", "Dagny", "Elsbeth", "Fenn", "Galen", "Hollis", "Ilse", "Jory", "Kestra", "Linnet", "Mabry", "Nell", "Orrin", "Pell", "Quilla", "Rook", "Sabine", "Tamsin"];
+const LAST = ["Ashdown", "Bramwell", "Corrow", "Dunlevy", "Eskridge", "Fallow", "Greythorn", "Hatchell", "Ivers", "Jessop", "Kittering", "Lowde", "Marrick", "Nettleby", "Orme", "Pennock", "Quarles", "Ravensworth", "Sallow", "Thistlewood"];
+const STREETS = ["Heron", "Larch", "Millpond", "Copse", "Wren", "Bramble", "Sedge", "Tinker", "Foxglove", "Marsh", "Quarry", "Willowby"];
+const KINDS = ["Lane", "Road", "Close", "Way", "Street", "Row"];
+const TOWNS = ["Brindlemere", "Harlow Bend", "Oxley Cross", "Fenwick Hollow"];
+/** Rough share of each status on a busy contractor's board. */
+const STATUS_WEIGHTS: Record<JobStatus, number> = { lead: 15, estimating: 25, proposed: 15, won: 10, scheduled: 8, installed: 20, lost: 7 };
+
+const pick = <T>(xs: readonly T[], i: number) => xs[i % xs.length];
+const weighted = (i: number): JobStatus => {
+  const total = Object.values(STATUS_WEIGHTS).reduce((a, b) => a + b, 0);
+  let x = (i * 7919) % total;
+  for (const s of JOB_STATUSES) {
+    if (x < STATUS_WEIGHTS[s]) return s;
+    x -= STATUS_WEIGHTS[s];
+  }
+  return "lead";
+};
+
+/** A realistic 12-plane roof: a hip house, an L-shaped wing with valleys, a detached garage gable, two porches. */
+function twelvePlaneRoof(version: number): RoofSaveValues {
+  const planes = [
+    ...hipRoof(44, 30, 6, { idPrefix: "main", stackId: "battens" }),
+    ...lShapeGableRoof({ mainWidthFt: 40, mainDepthFt: 26, wingWidthFt: 18, wingDepthFt: 16, wingOffsetFt: 6 }, 8, { idPrefix: "ell", origin: [60, 0], stackId: "battens" }),
+    ...gableRoof(24, 22, 5, { idPrefix: "garage", origin: [0, 50] }),
+    ...shedRoof(16, 8, 2, { idPrefix: "porch-a", origin: [40, 50], stackId: "mesh" }),
+    ...shedRoof(12, 6, 2, { idPrefix: "porch-b", origin: [64, 50], stackId: "mesh" }),
+  ];
+  return {
+    planes,
+    stacks: [
+      { id: "plain", name: "Synthetic, panels on the deck", underlayment: { kind: "synthetic", highTemp: true }, spacer: { kind: "none" } },
+      {
+        id: "battens",
+        name: "1x4 battens with foil",
+        underlayment: { kind: "synthetic", highTemp: true },
+        spacer: { kind: "battens", battens: { nominal: "1x4", spacingIn: 24 } },
+        radiantBarrier: { kind: "foil" },
+      },
+      { id: "mesh", name: "Mesh on the porches", underlayment: { kind: "self-adhered" }, spacer: { kind: "mesh", thicknessIn: 0.375 } },
+    ],
+    defaultStackId: "plain",
+    version,
+  };
+}
+
+// ---- measuring ------------------------------------------------------------------------------------------
+
+interface Measured {
+  name: string;
+  p50: number;
+  p95: number;
+  p99: number;
+  rps: number;
+  requests: number;
+  errors: number;
+  /** Error responses by status code. */
+  byStatus: Record<number, number>;
+}
+
+const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : NaN);
+
+async function measure(name: string, opts: autocannon.Options): Promise<Measured> {
+  const times: number[] = [];
+  let errors = 0;
+  const byStatus: Record<number, number> = {};
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    const instance = autocannon({ connections: CONNECTIONS, duration: DURATION_S, ...opts }, (err, res) => (err ? reject(err) : resolve(res)));
+    instance.on("response", (_client, status, _bytes, ms) => {
+      times.push(ms);
+      if (status >= 400) {
+        errors += 1;
+        byStatus[status] = (byStatus[status] ?? 0) + 1;
+      }
+    });
+  });
+  times.sort((a, b) => a - b);
+  return {
+    name,
+    p50: percentile(times, 50),
+    p95: percentile(times, 95),
+    p99: percentile(times, 99),
+    rps: result.requests.average,
+    requests: times.length,
+    errors: errors + result.errors + result.timeouts,
+    byStatus,
+  };
+}
+
+// ---- main -------------------------------------------------------------------------------------------------
+
+async function main() {
+  let localDb: LocalDb | null = null;
+  if (!hasExternalDatabase()) {
+    localDb = await startLocalMariaDb({
+      base: process.env.DB_DIR ?? ".data/mariadb",
+      port: Number(process.env.DB_PORT ?? 3307),
+      database: process.env.DB_NAME ?? "ridgewright",
+      user: process.env.DB_USER ?? "app",
+      log: (m) => console.log(m),
+    });
+    Object.assign(process.env, { DB_HOST: localDb.host, DB_PORT: String(localDb.port), DB_NAME: localDb.database, DB_USER: localDb.user, DB_PASSWORD: localDb.password });
+  }
+  const base = loadConfig();
+  const benchName = `${base.db.database}_bench`;
+  if (!/^[A-Za-z0-9_]+$/.test(benchName)) throw new Error(`Unusable database name ${benchName}`);
+
+  // Make the bench database new (the app user may create `<db>_…` databases).
+  const admin = createSequelize({ ...base.db });
+  await admin.query(`DROP DATABASE IF EXISTS \`${benchName}\``);
+  await admin.query(`CREATE DATABASE \`${benchName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await admin.close();
+  console.log(`Benchmark database ${benchName} created (the demo database ${base.db.database} is not touched).`);
+
+  const config = { ...base, db: { ...base.db, database: benchName, poolMax: Math.max(base.db.poolMax, 25) }, logLevel: "silent" as const };
+  const sequelize = createSequelize(config.db);
+  initModels(sequelize);
+  await createMigrator(sequelize).up();
+
+  // ---- seed -----------------------------------------------------------------------------------------------
+  const t0 = Date.now();
+  const company = await Company.create({ name: "Benchmark Roofing (invented)" });
+  const passwordHash = await hashPassword(PASSWORD, 4);
+  const owner = await User.create({ companyId: company.id, email: "bench-owner@example.com", name: "Bench Owner", role: "owner", passwordHash });
+  const estimators = await User.bulkCreate(
+    Array.from({ length: 4 }, (_, i) => ({ companyId: company.id, email: `bench-estimator-${i + 1}@example.com`, name: `${pick(FIRST, i + 3)} ${pick(LAST, i + 5)}`, role: "estimator" as const, passwordHash })),
+  );
+  await seedDemoPriceBook(sequelize, company.id);
+
+  const customerRows = Array.from({ length: CUSTOMERS }, (_, i) => {
+    const name = `${pick(FIRST, i)} ${pick(LAST, Math.floor(i / FIRST.length) + i)}`;
+    return {
+      companyId: company.id,
+      name,
+      email: `${name.toLowerCase().replace(/[^a-z]+/g, ".")}.${i}@example.com`,
+      phone: `555-01${String(i % 100).padStart(2, "0")}`,
+      addressLine1: `${10 + (i % 890)} ${pick(STREETS, i * 5 + 1)} ${pick(KINDS, i)}`,
+      addressLine2: null,
+      city: pick(TOWNS, i),
+      region: "Westmarch",
+      postalCode: `BM-${200 + (i % 60)}`,
+      notes: null,
+    };
+  });
+  for (let i = 0; i < customerRows.length; i += 1000) await Customer.bulkCreate(customerRows.slice(i, i + 1000));
+  const customers = await Customer.findAll({ where: { companyId: company.id }, attributes: ["id", "addressLine1", "city", "postalCode"], order: [["id", "ASC"]] });
+
+  const site = jobSiteSchema.parse({ atticType: "vented", atticFloorAreaSqFt: 1600, climateZone: "5A", iceDamRisk: true });
+  const now = Date.now();
+  const jobRows = Array.from({ length: JOBS }, (_, i) => {
+    const c = customers[i % customers.length];
+    const status = weighted(i);
+    const updated = new Date(now - ((i * 104_729) % (400 * 86_400)) * 1000);
+    return {
+      companyId: company.id,
+      customerId: c.id,
+      siteAddressLine1: c.addressLine1,
+      siteAddressLine2: null,
+      siteCity: c.city,
+      siteRegion: "Westmarch",
+      sitePostalCode: c.postalCode,
+      status,
+      estimatorId: i % 9 === 0 ? null : estimators[i % estimators.length].id,
+      site,
+      notes: null,
+      squares: status === "lead" ? null : 18 + (i % 37),
+      quoteTotalCents: ["lead", "estimating"].includes(status) ? null : 1_800_000 + (i % 50) * 23_700,
+      createdAt: new Date(updated.getTime() - 5 * 86_400_000),
+      updatedAt: updated,
+    };
+  });
+  for (let i = 0; i < jobRows.length; i += 1000) await Job.bulkCreate(jobRows.slice(i, i + 1000)); // keeps the given timestamps
+
+  // A measured roof on some jobs past lead (one roof computed once, stored on each).
+  const doc = roofSaveSchema.parse(twelvePlaneRoof(0));
+  const { version: _v, underlay: _u, ...document } = doc;
+  const takeoff = await computeStoredTakeoff(document, site, company.id);
+  const pastLead = await Job.findAll({ where: { companyId: company.id }, attributes: ["id", "status"], order: [["id", "ASC"]] });
+  const roofed = pastLead.filter((j) => j.status !== "lead").slice(0, ROOFED);
+  for (let i = 0; i < roofed.length; i += 200) {
+    await Roof.bulkCreate(roofed.slice(i, i + 200).map((j) => ({ jobId: j.id, companyId: company.id, version: 1, document, takeoff })));
+  }
+  await Job.update({ squares: takeoffSquares(takeoff) }, { where: { id: roofed.map((j) => j.id) }, silent: true });
+  await sequelize.query("ANALYZE TABLE jobs, customers, roofs");
+  const roofedIds = new Set(roofed.map((j) => j.id));
+  const saveTargets = pastLead.filter((j) => j.status === "estimating" && !roofedIds.has(j.id)).slice(0, CONNECTIONS).map((j) => j.id);
+  console.log(`Seeded ${JOBS} jobs, ${CUSTOMERS} customers, ${roofed.length} roofs in ${((Date.now() - t0) / 1000).toFixed(1)} s.`);
+
+  // ---- the app, in this process -------------------------------------------------------------------------------
+  const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
+  const noMail = { send: async () => ({ messageId: "<bench@example.com>" }) };
+  const app = createApp({ config, logger: createLogger("silent"), sequelize, sessionStore, mailer: noMail });
+  const server = app.listen(0, "127.0.0.1");
+  await new Promise<void>((r) => server.once("listening", () => r()));
+  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+  // Sign in (CSRF token, login, a fresh token for the new session).
+  let cookie = "";
+  const call = async (path: string, init: RequestInit = {}) => {
+    const res = await fetch(url + path, { ...init, headers: { "content-type": "application/json", cookie, ...(init.headers ?? {}) } });
+    const set = res.headers.getSetCookie?.() ?? [];
+    if (set.length) cookie = set.map((c) => c.split(";")[0]).join("; ");
+    return res;
+  };
+  const token1 = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
+  const login = await call("/api/auth/login", { method: "POST", headers: { "x-csrf-token": token1 }, body: JSON.stringify({ email: owner.email, password: PASSWORD }) });
+  if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
+  const token = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
+  const headers = { cookie, "x-csrf-token": token, "content-type": "application/json" };
+
+  const listPath = "/api/jobs?page=3&pageSize=50&status=estimating&sort=-updatedAt";
+  const searchPath = "/api/jobs?q=heron&pageSize=50";
+  for (const p of [listPath, searchPath]) {
+    const r = await call(p);
+    const body = (await r.json()) as { data: unknown[]; meta: { total: number } };
+    console.log(`GET ${p} → ${r.status}, ${body.data.length} rows of ${body.meta.total}`);
+  }
+
+  // ---- measure --------------------------------------------------------------------------------------------------
+  console.log(`\nautocannon: ${CONNECTIONS} connections, ${DURATION_S} s per endpoint…`);
+  const results: Measured[] = [];
+  results.push(await measure("GET /api/health", { url: `${url}/api/health` }));
+  results.push(await measure("GET jobs list (page 3, 50, estimating, -updatedAt)", { url: url + listPath, headers }));
+  results.push(await measure("GET jobs search (q=heron, 50)", { url: url + searchPath, headers }));
+
+  let firstSaveError = "";
+  const roofJson = (v: number) => JSON.stringify(twelvePlaneRoof(v));
+  // Each save takes a job nobody is saving right now and sends the version its last save returned; the job
+  // goes back to the pool with its new version when the answer comes (20 jobs for 20 connections).
+  const versions = new Map(saveTargets.map((id) => [id, 0]));
+  const free = [...saveTargets];
+  results.push(
+    await measure("PUT /api/jobs/:id/roof (12 planes + takeoff)", {
+      url,
+      headers,
+      requests: [
+        {
+          method: "PUT",
+          setupRequest: (req, ctx) => {
+            const jobId = free.shift()!;
+            (ctx as { jobId?: number }).jobId = jobId;
+            return { ...req, path: `/api/jobs/${jobId}/roof`, body: roofJson(versions.get(jobId)!) };
+          },
+          onResponse: (status, body, ctx) => {
+            const jobId = (ctx as { jobId: number }).jobId;
+            if (status === 200) versions.set(jobId, (JSON.parse(body) as { data: { version: number } }).data.version);
+            else if (!firstSaveError) firstSaveError = `${status} ${body.slice(0, 300)}`;
+            free.push(jobId);
+          },
+        },
+      ],
+    }),
+  );
+  const saves = [...versions.values()].reduce((a, b) => a + b, 0);
+  console.log(`Roof saves accepted: ${saves} (the jobs' versions add up to it).`);
+
+  // ---- report ---------------------------------------------------------------------------------------------------
+  for (const r of results) if (r.errors) console.log(`${r.name}: errors by status ${JSON.stringify(r.byStatus)}`);
+  if (firstSaveError) console.log(`first refused roof save: ${firstSaveError}`);
+  const health = results[0];
+  const pad = (s: string, n: number) => s.padEnd(n);
+  const ms = (x: number) => `${x.toFixed(1)} ms`;
+  console.log(`\n${pad("endpoint", 52)}${pad("p50", 11)}${pad("p95", 11)}${pad("p99", 11)}${pad("req/s", 10)}${pad("errors", 8)}p95 ÷ health  req/s ÷ health`);
+  for (const r of results) {
+    console.log(
+      `${pad(r.name, 52)}${pad(ms(r.p50), 11)}${pad(ms(r.p95), 11)}${pad(ms(r.p99), 11)}${pad(r.rps.toFixed(0), 10)}${pad(String(r.errors), 8)}` +
+        `${pad((r.p95 / health.p95).toFixed(1) + "×", 14)}${(r.rps / health.rps).toFixed(2)}`,
+    );
+  }
+  const [, list, search, save] = results;
+  const verdict = (ok: boolean) => (ok ? "met" : "NOT met");
+  console.log(`\nTarget list p95 < 50 ms: ${verdict(list.p95 < 50)} (filtered ${ms(list.p95)}, search ${ms(search.p95)}); roof save p95 < 100 ms: ${verdict(save.p95 < 100)} (${ms(save.p95)}).`);
+
+  // Let requests still in flight finish before the pool closes.
+  await new Promise((r) => setTimeout(r, 1500));
+  server.closeAllConnections();
+  await new Promise<void>((r) => server.close(() => r()));
+  sessionStore.stopExpiringSessions();
+  await sequelize.close();
+  if (localDb?.started) await localDb.stop();
+}
+
+main().catch((err) => {
+  console.error(err);
+  process.exit(1);
+});
