@@ -15,6 +15,7 @@ import { notFoundHandler } from "./middleware/not-found";
 import { apiRouter } from "./routes/index";
 import { healthRouter } from "./routes/health.routes";
 import { UsersService } from "./services/users.service";
+import { createDiskStorage, type Storage } from "./storage/storage";
 
 export interface AppDeps {
   config: Config;
@@ -27,9 +28,12 @@ export interface AppDeps {
   mailCatcher?: MailCatcher;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
+  /** Uploaded files; defaults to the disk folder named by config.uploads.storageDir. */
+  storage?: Storage;
 }
 
 export interface AppContext extends AppDeps {
+  storage: Storage;
   passport: ReturnType<typeof createPassport>;
   services: { users: UsersService };
 }
@@ -42,6 +46,7 @@ export function createApp(deps: AppDeps): Express {
   const passport = createPassport();
   const ctx: AppContext = {
     ...deps,
+    storage: deps.storage ?? createDiskStorage(config.uploads.storageDir),
     passport,
     services: { users: new UsersService(deps.sequelize, config.bcryptRounds) },
   };

@@ -38,6 +38,10 @@ const envSchema = z.object({
   /** How often the outbox worker looks for due e-mails; at most 4 s so a new e-mail goes out within 5 s. */
   OUTBOX_POLL_MS: z.coerce.number().int().min(50).max(4_000).default(1_500),
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
+  /** Uploaded files (outside the web root); relative paths are from the working directory. */
+  STORAGE_DIR: z.string().min(1).default(".data/storage"),
+  /** Largest accepted upload, bytes per file (25 MB). */
+  UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(25 * 1024 * 1024),
 });
 
 export interface Config {
@@ -57,6 +61,8 @@ export interface Config {
   /** E-mail: a real SMTP server when smtpUrl is set, else the local catcher (useCatcher). */
   mail: { smtpUrl?: string; from: string; catcherPort: number; useCatcher: boolean };
   outbox: { pollMs: number; maxAttempts: number };
+  /** Uploads: the storage folder and the per-file size limit. */
+  uploads: { storageDir: string; maxBytes: number };
 }
 
 /** Parses the environment once; a bad value stops the process with a clear message. */
@@ -103,6 +109,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       useCatcher: !e.SMTP_URL,
     },
     outbox: { pollMs: e.OUTBOX_POLL_MS, maxAttempts: e.OUTBOX_MAX_ATTEMPTS },
+    uploads: { storageDir: e.STORAGE_DIR, maxBytes: e.UPLOAD_MAX_BYTES },
   };
 }
 

@@ -12,6 +12,7 @@ import { seedDemo } from "./db/seeders/demo";
 import { createSmtpMailer } from "./mail/mailer";
 import type { MailCatcher } from "./mail/catcher";
 import { OutboxWorker } from "./services/outbox.service";
+import { createDiskStorage } from "./storage/storage";
 
 export interface RunningServer {
   server: Server;
@@ -68,7 +69,8 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
     maxAttempts: config.outbox.maxAttempts,
     tagForCatcher: Boolean(mailCatcher),
   });
-  const app = createApp({ config, logger, sequelize, sessionStore, mailer, mailCatcher, clientDir: path.join(root, "dist") });
+  const storage = createDiskStorage(path.resolve(root, config.uploads.storageDir)); // outside dist/, never served statically
+  const app = createApp({ config, logger, sequelize, sessionStore, mailer, mailCatcher, clientDir: path.join(root, "dist"), storage });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);

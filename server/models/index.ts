@@ -13,6 +13,7 @@ import { LaborRate, initLaborRate } from "./labor-rate.model";
 import { CompanySettings, initCompanySettings } from "./company-settings.model";
 import { initMailModels } from "./mail.models";
 import { Approval, Quote, QuoteLine, QuoteOption, QuoteRevision, initQuoteModels } from "./quote.models";
+import { Attachment, initAttachment } from "./attachment.model";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -48,6 +49,8 @@ export function initModels(sequelize: Sequelize): void {
   QuoteRevision.belongsTo(User, { as: "submitter", foreignKey: "submittedBy", constraints: false });
   QuoteRevision.belongsTo(User, { as: "approver", foreignKey: "approvedBy", constraints: false });
   QuoteRevision.belongsTo(User, { as: "returner", foreignKey: "returnedBy", constraints: false });
+  initAttachment(sequelize);
+  Attachment.belongsTo(User, { as: "uploader", foreignKey: "uploadedBy", constraints: false });
   initialisedWith = sequelize;
 }
 
@@ -55,3 +58,4 @@ export { Company, User, Session, AuditEvent };
 export { Customer, Job, JobCrew, Roof };
 export { CatalogItem, CatalogItemPrice, LaborRate, CompanySettings };
 export { Quote, QuoteRevision, QuoteOption, QuoteLine, Approval };
+export { Attachment };

@@ -11,6 +11,8 @@ import { companyRouter } from "./company.routes";
 import { mailRouter } from "./mail.routes";
 import { jobQuotesRouter, quotesRouter } from "./quotes.routes";
 import { approvalsRouter } from "./approvals.routes";
+import { attachmentsRouter, jobAttachmentsRouter } from "./attachments.routes";
+import { roofImportRouter } from "./roof-import.routes";
 
 /** Every session-authenticated API route; mounted behind the session, passport and CSRF middleware. */
 export function apiRouter(ctx: AppContext): Router {
@@ -20,12 +22,15 @@ export function apiRouter(ctx: AppContext): Router {
   router.use("/calc", calcRouter());
   router.use("/customers", customersRouter(ctx));
   router.use("/jobs/:jobId/quotes", jobQuotesRouter(ctx)); // before /jobs: the job's quotes
+  router.use("/jobs/:jobId/attachments", jobAttachmentsRouter(ctx)); // before /jobs: the job's files
+  router.use("/jobs/:jobId/roof", roofImportRouter(ctx)); // before /jobs: import/export.csv only, the rest falls through
   router.use("/jobs", jobsRouter(ctx));
   router.use("/audit", auditRouter(ctx));
   router.use("/price-book", priceBookRouter(ctx));
   router.use("/company", companyRouter(ctx));
   router.use("/quotes", quotesRouter(ctx));
   router.use("/approvals", approvalsRouter(ctx));
+  router.use("/attachments", attachmentsRouter(ctx));
   router.use(mailRouter(ctx)); // /auth/forgot, /auth/reset, /dev/mail
   return router;
 }

@@ -37,7 +37,8 @@ export function resetCsrfToken(): void {
   csrfRequest = null;
 }
 
-async function getCsrfToken(): Promise<string> {
+/** The session's CSRF token (fetched once, then cached); `uploadFiles` sends it too. */
+export async function getCsrfToken(): Promise<string> {
   if (csrfToken) return csrfToken;
   // one request even when several mutations start together
   csrfRequest ??= (async () => {
@@ -81,6 +82,12 @@ async function toApiError(res: Response): Promise<ApiError> {
   } catch {
     // not JSON (a proxy page, an empty body): fall through to a generic message
   }
+  return apiErrorFrom(res.status, body);
+}
+
+/** The ApiError for a non-2xx answer from its status and parsed body (null when it was not JSON). */
+export function apiErrorFrom(status: number, body: unknown): ApiError {
+  const res = { status };
   const err = (body as { error?: { code?: unknown; message?: unknown; fields?: unknown } } | null)?.error;
   if (err && typeof err === "object") {
     const fields =
@@ -118,7 +125,7 @@ function messageForStatus(status: number): string {
   return `The request failed (${status}).`;
 }
 
-const isCsrfRefusal = (e: ApiError) => e.status === 403 && e.code.toLowerCase().includes("csrf");
+export const isCsrfRefusal = (e: ApiError) => e.status === 403 && e.code.toLowerCase().includes("csrf");
 
 /**
  * Calls the API and returns the parsed JSON body (`undefined` for 204).

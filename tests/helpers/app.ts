@@ -1,4 +1,8 @@
 import type { Express } from "express";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { createDiskStorage, type Storage } from "../../server/storage/storage";
 import { loadConfig, type Config } from "../../server/config";
 import { createLogger } from "../../server/logger";
 import { createApp } from "../../server/app";
@@ -9,6 +13,13 @@ import { createMailCatcher, type MailCatcher } from "../../server/mail/catcher";
 import { OutboxWorker, type OutboxRunResult, type OutboxWorkerOptions } from "../../server/services/outbox.service";
 
 const stores: Array<ReturnType<typeof createSessionStore>> = [];
+
+let storage: (Storage & { dir: string }) | null = null;
+
+/** This test file's upload storage: a fresh temp folder (vitest isolates modules per file). */
+export function testStorage(): Storage & { dir: string } {
+  return (storage ??= createDiskStorage(mkdtempSync(path.join(tmpdir(), "rw-storage-"))));
+}
 
 export function testConfig(overrides: Partial<Config> = {}): Config {
   return { ...loadConfig(), ...overrides };
@@ -62,7 +73,7 @@ export async function deliverOutbox(): Promise<OutboxRunResult> {
  * The real app on the real test database, without listening. E-mail goes through real SMTP to this
  * file's catcher, which /api/dev/mail shows unless the config names an SMTP_URL.
  */
-export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: Mailer } = {}): Express {
+export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: Mailer; storage?: Storage } = {}): Express {
   const sequelize = testSequelize();
   const config = testConfig(overrides);
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
@@ -74,6 +85,7 @@ export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: 
     sessionStore,
     mailer: deps.mailer ?? testMailer,
     mailCatcher: config.mail.useCatcher ? testMailCatcher() : undefined,
+    storage: deps.storage ?? testStorage(),
   });
 }
 
@@ -83,4 +95,6 @@ export function stopTestStores(): void {
   smtp = null;
   void catcher?.close();
   catcher = null;
+  if (storage) rmSync(storage.dir, { recursive: true, force: true });
+  storage = null;
 }

@@ -20,6 +20,7 @@ import * as q2 from "./20261201400002-create-quote-revisions";
 import * as q3 from "./20261201400003-create-quote-options";
 import * as q4 from "./20261201400004-create-quote-lines";
 import * as q5 from "./20261201400005-create-approvals";
+import * as u1 from "./20261201500001-create-attachments";
 
 interface Migration {
   name: string;
@@ -50,4 +51,5 @@ export const migrations: Migration[] = [
   { name: "20261201400003-create-quote-options", ...q3 },
   { name: "20261201400004-create-quote-lines", ...q4 },
   { name: "20261201400005-create-approvals", ...q5 },
+  { name: "20261201500001-create-attachments", ...u1 },
 ];
