@@ -66,6 +66,10 @@ export function createAppRoutes(qc: QueryClient): RouteObject[] {
                       path: paths.approvals,
                       lazy: () => import("@/app/routes/approvals").then((m) => ({ Component: m.ApprovalsRoute })),
                     },
+                    {
+                      path: `${paths.approvals}/:quoteId`,
+                      lazy: () => import("@/app/routes/approvals").then((m) => ({ Component: m.ApprovalReviewRoute })),
+                    },
                   ],
                 },
                 {

@@ -49,9 +49,11 @@ export const canOpen = (screen: Screen, role: Role) => (screenAccess[screen] as 
 /** The main navigation, in order; each entry is shown only to the roles that may open it. */
 export const mainNav: { screen: Screen; to: string; label: string }[] = [
   { screen: "jobs", to: paths.jobs, label: "Jobs" },
+  { screen: "customers", to: paths.customers, label: "Customers" },
   { screen: "approvals", to: paths.approvals, label: "Approvals" },
   { screen: "priceBook", to: paths.priceBook, label: "Price book" },
   { screen: "team", to: paths.team, label: "Team" },
+  { screen: "company", to: paths.company, label: "Company" },
 ];
 
 /**

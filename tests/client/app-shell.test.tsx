@@ -20,12 +20,12 @@ function renderShell(role: Role, onSignOut = vi.fn()) {
 }
 
 describe("AppShell navigation", () => {
-  it("shows the owner Jobs, Approvals, Price book and Team", () => {
-    expect(renderShell("owner")).toEqual(["Jobs", "Approvals", "Price book", "Team"]);
+  it("shows the owner Jobs, Customers, Approvals, Price book, Team and Company", () => {
+    expect(renderShell("owner")).toEqual(["Jobs", "Customers", "Approvals", "Price book", "Team", "Company"]);
   });
 
-  it("shows the estimator Jobs and Price book", () => {
-    expect(renderShell("estimator")).toEqual(["Jobs", "Price book"]);
+  it("shows the estimator Jobs, Customers and Price book (no Company, Team or Approvals)", () => {
+    expect(renderShell("estimator")).toEqual(["Jobs", "Customers", "Price book"]);
   });
 
   it("shows crew only Jobs", () => {

@@ -65,9 +65,12 @@ describe("routing and the session", () => {
   });
 
   it("'/' sends a signed-in user to the jobs board", async () => {
-    stubApi({ "GET /api/auth/me": () => json(200, { user: crew }) });
+    stubApi({
+      "GET /api/auth/me": () => json(200, { user: crew }),
+      "GET /api/jobs": () => json(200, { data: [], meta: { page: 1, pageSize: 25, total: 0 } }),
+    });
     const { router } = renderApp("/");
-    expect(await screen.findByText("The jobs board is on its way")).toBeInTheDocument();
+    expect(await screen.findByText("No jobs assigned to you", undefined, { timeout: 5000 })).toBeInTheDocument();
     expect(router.state.location.pathname).toBe("/jobs");
     expect(document.title).toBe("Jobs · Ridgewright");
   });
@@ -94,9 +97,11 @@ describe("routing and the session", () => {
       "GET /api/auth/me": [() => json(200, { user: owner }), signedOut],
       "GET /api/auth/csrf": () => json(200, { token: "t" }),
       "POST /api/auth/logout": () => json(204),
+      "GET /api/jobs": () => json(200, { data: [], meta: { page: 1, pageSize: 25, total: 0 } }),
+      "GET /api/users": () => json(200, { data: [member(owner)] }),
     });
     const { router } = renderApp("/jobs");
-    await screen.findByText("The jobs board is on its way");
+    await screen.findByText("No jobs yet", undefined, { timeout: 5000 });
 
     await userEvent.setup().click(screen.getByRole("button", { name: "Sign out" }));
 

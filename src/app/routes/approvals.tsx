@@ -1,23 +1,26 @@
-import { EmptyState } from "@/components/ui/empty-state";
+import { useParams } from "react-router-dom";
 import { PageHeader } from "@/components/layout/page-header";
+import { NotFoundRoute } from "@/app/routes/not-found";
+import { ApprovalsQueue } from "@/features/approvals/components/approvals-queue";
+import { ApprovalReview } from "@/features/approvals/components/approval-review";
 
-/** The owner's review queue (placeholder until quotes exist). */
+/** The owner's review queue. */
 export function ApprovalsRoute() {
   return (
     <>
       <title>Approvals · Ridgewright</title>
-      <PageHeader title="Approvals" description="Quotes your estimators send for review before they go to a homeowner." />
-      <EmptyState
-        icon={
-          <svg viewBox="0 0 48 48" className="size-12" fill="none" stroke="currentColor" strokeWidth="1.5">
-            <rect x="10" y="7" width="28" height="34" rx="3" />
-            <path d="M17 16h14M17 22h14M17 28h8" strokeLinecap="round" />
-            <path d="m26 33 3 3 6-7" strokeLinecap="round" strokeLinejoin="round" />
-          </svg>
-        }
-        title="Nothing waiting for review"
-        description="When an estimator sends a quote for approval, you'll see its cost, margin and any manual overrides here, and approve it or return it. The review queue arrives in an upcoming release."
+      <PageHeader
+        title="Approvals"
+        description="Quotes your estimators have submitted, oldest first. Open one to see its costs, margin and overrides."
       />
+      <ApprovalsQueue />
     </>
   );
+}
+
+/** `/approvals/:quoteId`: one quote's review. */
+export function ApprovalReviewRoute() {
+  const id = Number(useParams().quoteId);
+  if (!Number.isInteger(id) || id <= 0) return <NotFoundRoute />;
+  return <ApprovalReview quoteId={id} />;
 }

@@ -1,11 +1,14 @@
-import { PageHeader } from "@/components/layout/page-header";
-import { EmptyState } from "@/components/ui/empty-state";
+import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { CustomersManager } from "@/features/customers/components/customers-manager";
 
+/** `/customers` (owners and estimators): the homeowners, with search, editing, archive and restore. */
 export function CustomersRoute() {
   return (
-    <div className="space-y-4">
-      <PageHeader title="Customers" />
-      <EmptyState title="Customers" description="The customer list is being built." />
-    </div>
+    <>
+      <title>Customers · Ridgewright</title>
+      <ErrorBoundary what="The customers screen">
+        <CustomersManager />
+      </ErrorBoundary>
+    </>
   );
 }

@@ -92,7 +92,9 @@ export function Dialog({ open, onClose, title, description, children, footer, cl
         aria-describedby={description ? descriptionId : undefined}
         tabIndex={-1}
         className={cn(
-          "relative z-10 w-full max-w-md animate-slide-in rounded-lg border border-steel-200 bg-white shadow-overlay focus:outline-none",
+          "relative z-10 w-full animate-slide-in rounded-lg border border-steel-200 bg-white shadow-overlay focus:outline-none",
+          // the default width, unless the caller sets its own (cn() doesn't merge Tailwind classes)
+          !className?.includes("max-w-") && "max-w-md",
           className,
         )}
       >

@@ -1,10 +1,10 @@
 import type { ComponentPropsWithRef } from "react";
 import { cn } from "@/lib/cn";
 
-/** A table in a bordered, horizontally scrollable panel. */
+/** A table in a bordered, horizontally scrollable panel (positioned, so sr-only text inside it stays clipped). */
 export function Table({ className, ...props }: ComponentPropsWithRef<"table">) {
   return (
-    <div className="overflow-x-auto rounded-lg border border-steel-200 bg-white shadow-panel">
+    <div className="relative overflow-x-auto rounded-lg border border-steel-200 bg-white shadow-panel">
       <table className={cn("w-full border-collapse text-left text-sm", className)} {...props} />
     </div>
   );

@@ -6,6 +6,12 @@ import { NotFoundRoute } from "@/app/routes/not-found";
 import { CREW_SECTIONS, JOB_SECTIONS, paths, type JobSection } from "@/config/paths";
 import { useMe } from "@/features/auth/api/queries";
 import { cn } from "@/lib/cn";
+import { canSeePricing } from "@shared/auth/roles";
+import { ApiError, errorMessage } from "@/lib/api-client";
+import { Alert } from "@/components/ui/alert";
+import { Button } from "@/components/ui/button";
+import { useJob } from "@/features/jobs/api/queries";
+import { JobHeader, JobHeaderSkeleton } from "@/features/jobs/components/job-header";
 
 type SectionComponent = ComponentType<{ jobId: number }>;
 const section = (load: () => Promise<SectionComponent>) => lazy(() => load().then((Component) => ({ default: Component })));
@@ -30,14 +36,31 @@ export function JobWorkspaceRoute() {
   const { jobId: rawId, section: rawSection } = useParams();
   const { data: me } = useMe();
   const jobId = Number(rawId);
-  if (!Number.isInteger(jobId) || jobId <= 0) return <NotFoundRoute />;
+  const validId = Number.isInteger(jobId) && jobId > 0;
+  const job = useJob(jobId, validId);
+  if (!validId) return <NotFoundRoute />;
+  if (job.error instanceof ApiError && job.error.status === 404) return <NotFoundRoute />;
   if (!rawSection) return <Navigate to={paths.jobSection(jobId, "site")} replace />;
   if (!isSection(rawSection)) return <NotFoundRoute />;
   const visible = me?.role === "crew" ? JOB_SECTIONS.filter((s) => CREW_SECTIONS.includes(s.slug)) : JOB_SECTIONS;
   if (!visible.some((s) => s.slug === rawSection)) return <Navigate to={paths.jobSection(jobId, "site")} replace />;
   const Section = SECTIONS[rawSection];
+  const sectionLabel = JOB_SECTIONS.find((s) => s.slug === rawSection)?.label ?? "";
   return (
     <div className="space-y-3">
+      <title>{`${job.data ? `${job.data.customer.name || `Job ${jobId}`} · ` : ""}${sectionLabel} · Ridgewright`}</title>
+      {job.data ? (
+        <JobHeader job={job.data} showQuoteTotal={me ? canSeePricing(me.role) : false} />
+      ) : job.isError ? (
+        <Alert tone="error" title="The job could not be loaded">
+          <p>{errorMessage(job.error)}</p>
+          <Button variant="secondary" size="sm" className="mt-2" onClick={() => job.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      ) : (
+        <JobHeaderSkeleton />
+      )}
       <nav aria-label="Job sections" className="flex flex-wrap gap-1 border-b border-steel-200">
         {visible.map((s) => (
           <NavLink
