@@ -11,6 +11,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields?: FieldErrors,
+    /** What the server sent beside `error`, such as `currentVersion` or `currentStatus` on a 409. */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
     this.name = "ApiError";
@@ -96,11 +98,13 @@ export function apiErrorFrom(status: number, body: unknown): ApiError {
             Object.entries(err.fields as Record<string, unknown>).map(([k, v]) => [k, String(v)]),
           ) as FieldErrors)
         : undefined;
+    const { error: _error, ...details } = body as Record<string, unknown>;
     return new ApiError(
       res.status,
       typeof err.code === "string" ? err.code : codeForStatus(res.status),
       typeof err.message === "string" && err.message ? err.message : messageForStatus(res.status),
       fields,
+      details,
     );
   }
   return new ApiError(res.status, codeForStatus(res.status), messageForStatus(res.status));

@@ -93,6 +93,16 @@ describe("api()", () => {
     expect(err).toMatchObject({ status: 409, code: "last_owner", message: "The last active owner must stay", fields: { role: "Keep one owner" } });
   });
 
+  it("keeps what the server sent beside the error (the current version on a stale save)", async () => {
+    stubApi({
+      "GET /api/auth/csrf": () => json(200, { token: "t1" }),
+      "PUT /api/jobs/3/roof": () => json(409, { error: { code: "stale_version", message: "Someone saved first" }, currentVersion: 7 }),
+    });
+    const err = await api("/jobs/3/roof", { method: "PUT", json: { version: 6 } }).catch((e: unknown) => e);
+    expect(err).toBeInstanceOf(ApiError);
+    expect((err as ApiError).details).toEqual({ currentVersion: 7 });
+  });
+
   it("a body that is not JSON still gives an ApiError with the status", async () => {
     stubApi({ "GET /api/users": () => new Response("<html>Bad gateway</html>", { status: 502 }) });
     await expect(api("/users")).rejects.toMatchObject({ status: 502, code: "server_error" });
