@@ -87,6 +87,8 @@ export interface ParsedCsv {
   rows: ParsedCsvRow[];
   errors: CsvRowError[];
   warnings: string[];
+  /** Item attributes whose column the file has; the others are left as they are on existing items. */
+  attributesInFile: Set<string>;
 }
 
 /**
@@ -106,11 +108,12 @@ export function parsePriceBookCsv(buf: Buffer): ParsedCsv {
       rows: [],
       errors: [{ row: typeof e.lines === "number" ? e.lines : 1, column: "file", message: `The file is not valid CSV: ${e.message ?? "unreadable"}` }],
       warnings,
+      attributesInFile: new Set(),
     };
   }
   const isBlank = (r: string[]) => r.every((c) => c.trim() === "");
   const headerIndex = records.findIndex((r) => !isBlank(r));
-  if (headerIndex < 0) return { rows: [], errors: [{ row: 1, column: "file", message: "The file is empty" }], warnings };
+  if (headerIndex < 0) return { rows: [], errors: [{ row: 1, column: "file", message: "The file is empty" }], warnings, attributesInFile: new Set() };
   const header = records[headerIndex].map(normaliseHeader);
   const headerRow = headerIndex + 1;
   const known = new Set<string>(CSV_COLUMNS);
@@ -124,7 +127,8 @@ export function parsePriceBookCsv(buf: Buffer): ParsedCsv {
   for (const c of CSV_REQUIRED_COLUMNS) {
     if (!seen.has(c)) errors.push({ row: headerRow, column: c, message: "Missing column" });
   }
-  if (errors.length) return { rows: [], errors, warnings };
+  const attributesInFile = new Set(Object.entries(ATTRIBUTE_COLUMNS).filter(([, column]) => seen.has(column)).map(([attr]) => attr));
+  if (errors.length) return { rows: [], errors, warnings, attributesInFile };
 
   const rows: ParsedCsvRow[] = [];
   const skuRow = new Map<string, number>();
@@ -168,5 +172,5 @@ export function parsePriceBookCsv(buf: Buffer): ParsedCsv {
     rows.push({ row: rowNo, data: parsed.data });
   }
   if (!errors.length && rows.length === 0) errors.push({ row: headerRow + 1, column: "file", message: "The file has no item rows" });
-  return { rows, errors, warnings };
+  return { rows, errors, warnings, attributesInFile };
 }

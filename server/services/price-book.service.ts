@@ -334,6 +334,9 @@ export class PriceBookService {
           continue;
         }
         const before: ItemValues = Object.fromEntries(ITEM_FIELDS.map((f) => [f, item[f]])) as unknown as ItemValues;
+        // A column the file does not have leaves that attribute as it is (a blank cell clears it).
+        const kept = Object.entries(item.attributes ?? {}).filter(([attr]) => !parsed.attributesInFile.has(attr));
+        values.attributes = { ...Object.fromEntries(kept), ...values.attributes } as typeof values.attributes;
         const changes: Record<string, unknown> = diff(before, values);
         if (item.active !== values.active) changes.active = { from: item.active, to: values.active };
         plan.push({ row: r.row, item, values, changes });

@@ -118,6 +118,28 @@ describe("POST /api/price-book/import", () => {
     expect(audit!.changes).toMatchObject({ created: ["TR-2"], updated: [{ sku: "TR-1", fields: expect.arrayContaining(["sku", "unitCostCents"]) }] });
   });
 
+  it("leaves attributes alone when the file has no column for them, and clears one whose cell is blank", async () => {
+    const { agent, token, user } = await signedInAgent({ role: "owner" });
+    const existing = await buildCatalogItem(user.companyId, {
+      sku: "UL-1",
+      category: "underlayment",
+      name: "Synthetic underlayment",
+      purchaseUnit: "roll",
+      packCoverage: 1000,
+      coverageUnit: "sqft",
+      unitCostCents: 9000,
+      attributes: { rollWidthIn: 48, rollLengthFt: 250, sideLapIn: 4, endLapIn: 6 },
+    });
+    // A file with only the base columns and end_lap_in (blank): the roll sizes have no column and stay.
+    const header = "sku,category,name,purchase_unit,pack_coverage,coverage_unit,unit_cost,waste_pct,material_key,active,end_lap_in";
+    const file = Buffer.from(`${header}\nUL-1,underlayment,Synthetic underlayment,roll,1000,sqft,95.00,,,yes,\n`);
+    const res = await importFile(agent, token, file, true);
+    expect(res.status).toBe(200);
+    const after = (await CatalogItem.findByPk(existing.id))!;
+    expect(after.unitCostCents).toBe(9500);
+    expect(after.attributes).toEqual({ rollWidthIn: 48, rollLengthFt: 250, sideLapIn: 4 });
+  });
+
   it("reports every bad row by row number and column and saves nothing (bad number, unknown category, duplicate SKU)", async () => {
     const { agent, token, user } = await signedInAgent({ role: "owner" });
     await buildCatalogItem(user.companyId, { sku: "KEEP", unitCostCents: 500 });
