@@ -25,6 +25,18 @@ export default defineConfig({
         },
       },
       {
+        resolve,
+        test: {
+          name: "browser",
+          environment: "node",
+          include: ["tests/browser/**/*.test.ts"],
+          fileParallelism: false,
+          globalSetup: ["tests/browser/global-setup.ts"],
+          testTimeout: 90_000,
+          hookTimeout: 180_000,
+        },
+      },
+      {
         plugins: [react()],
         resolve,
         test: {
