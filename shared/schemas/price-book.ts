@@ -415,7 +415,8 @@ export interface CompanyContactDto {
   phone: string | null;
   email: string | null;
   website: string | null;
-  logoAttachmentKey: string | null;
+  /** Where the client fetches the logo (GET /api/company/logo), or null when there is none. */
+  logoUrl: string | null;
 }
 
 /** Owners and estimators also get the proposal texts, numbering and the pricing settings. */

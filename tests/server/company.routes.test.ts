@@ -1,5 +1,6 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import request from "supertest";
+import sharp from "sharp";
 import { createTestApp } from "../helpers/app";
 import { signedInAgent } from "../helpers/auth";
 import { buildCompany } from "../helpers/factories";
@@ -67,7 +68,7 @@ describe("PUT /api/company", () => {
       id: user.companyId,
       addressLine2: null,
       email: "office@example.com",
-      logoAttachmentKey: null,
+      logoUrl: null,
     });
     const row = (await Company.findByPk(user.companyId))!;
     expect([row.name, row.nextProposalNumber, row.proposalPrefix]).toEqual(["Harlow Bend Metal Roofs", 500, "HB-"]);
@@ -136,5 +137,50 @@ describe("allocateProposalNumber", () => {
       }),
     ).rejects.toThrow("send failed");
     expect((await Company.findByPk(company.id))!.nextProposalNumber).toBe(1006);
+  });
+});
+
+describe("/api/company/logo", () => {
+  const png = () => sharp({ create: { width: 1200, height: 300, channels: 3, background: "#7a3b1f" } }).png().toBuffer();
+
+  it("lets the owner upload a logo, resized to fit 600 × 200 and kept as PNG, readable by the team", async () => {
+    const app = createTestApp();
+    const { agent, token, user } = await signedInAgent({ role: "owner" }, app);
+    const put = await agent.put("/api/company/logo").set("X-CSRF-Token", token).attach("file", await png(), { filename: "logo.png", contentType: "image/png" });
+    expect(put.status).toBe(200);
+    expect(put.body.data.logoUrl).toMatch(/^\/api\/company\/logo\?v=/);
+    expect(JSON.stringify(put.body)).not.toMatch(/logoAttachmentKey/); // the storage key never leaves the server
+    const crew = await signedInAgent({ role: "crew", companyId: user.companyId }, app);
+    const got = await crew.agent.get("/api/company/logo");
+    expect(got.status).toBe(200);
+    expect(got.headers["content-type"]).toBe("image/png");
+    const meta = await sharp(got.body as Buffer).metadata();
+    expect([meta.format, meta.width, meta.height]).toEqual(["png", 600, 150]);
+    const audit = await AuditEvent.findAll({ where: { entityType: "company", action: "logo_set" } });
+    expect(audit).toHaveLength(1);
+  });
+
+  it("refuses a file that is not an image with 415 and keeps the old logo", async () => {
+    const { agent, token } = await signedInAgent({ role: "owner" });
+    await agent.put("/api/company/logo").set("X-CSRF-Token", token).attach("file", await png(), { filename: "logo.png", contentType: "image/png" }).expect(200);
+    const bad = await agent
+      .put("/api/company/logo")
+      .set("X-CSRF-Token", token)
+      .attach("file", Buffer.from("<html><script>alert(1)</script></html>"), { filename: "logo.png", contentType: "image/png" });
+    expect(bad.status).toBe(415);
+    expect((await agent.get("/api/company/logo")).status).toBe(200);
+  });
+
+  it("lets only the owner change it (estimator 403, signed out 401) and removes it with DELETE", async () => {
+    const app = createTestApp();
+    const owner = await signedInAgent({ role: "owner" }, app);
+    const estimator = await signedInAgent({ role: "estimator", companyId: owner.user.companyId }, app);
+    const refused = await estimator.agent.put("/api/company/logo").set("X-CSRF-Token", estimator.token).attach("file", await png(), "logo.png");
+    expect(refused.status).toBe(403);
+    expect((await request(app).get("/api/company/logo")).status).toBe(401);
+    await owner.agent.put("/api/company/logo").set("X-CSRF-Token", owner.token).attach("file", await png(), "logo.png").expect(200);
+    expect((await owner.agent.delete("/api/company/logo").set("X-CSRF-Token", owner.token)).status).toBe(204);
+    expect((await owner.agent.get("/api/company/logo")).status).toBe(404);
+    expect((await Company.findByPk(owner.user.companyId))!.logoAttachmentKey).toBeNull();
   });
 });
