@@ -16,7 +16,10 @@ const NOTE: TextStyle = { size: 8.5, color: "#7a4b06", leading: 1.38, weight: "s
 
 export const ZONE_COLORS: Record<string, string> = { "1'": "#f7f9fa", "1": "#e4edf2", "2": "#9dc1d3", "3": "#3f7d9b" };
 
-export async function renderInstallPacketPdf(doc: InstallPacketDocDto, opts: { fonts?: FontFamily } = {}): Promise<Buffer> {
+/** Photo bytes (JPEG or PNG) by attachment id, drawn into the photo slots that name them. */
+export type PacketImages = Record<number, Uint8Array>;
+
+export async function renderInstallPacketPdf(doc: InstallPacketDocDto, opts: { fonts?: FontFamily; images?: PacketImages } = {}): Promise<Buffer> {
   const { doc: pdf, finish } = newDocument({ title: `Install packet ${doc.reference}`, author: doc.company.name, created: new Date(`${doc.date}T12:00:00Z`) });
   const ts = new Typesetter(pdf, opts.fonts ?? loadInterFonts());
   const flow = new Flow(ts, {
@@ -64,7 +67,7 @@ export async function renderInstallPacketPdf(doc: InstallPacketDocDto, opts: { f
 
   flow.heading("Photos for the crew", { keep: 40 });
   if (doc.photoSlots.length === 0) flow.text("No photos flagged for the crew yet.", SMALL);
-  else photoSlots(flow, doc.photoSlots);
+  else photoSlots(flow, doc.photoSlots, opts.images ?? {});
 
   if (doc.advisories.length) {
     flow.heading("Checks from the takeoff", { keep: 40 });
@@ -297,17 +300,39 @@ function materialTable(f: Flow, rows: InstallPacketDocDto["trim"]): void {
   });
 }
 
-function photoSlots(f: Flow, slots: InstallPacketDocDto["photoSlots"]): void {
+/** JPEG (FF D8) or PNG (89 50 4E 47): the formats pdfkit embeds. */
+function embeddable(b: Uint8Array | undefined): b is Uint8Array {
+  if (!b || b.length < 8) return false;
+  if (b[0] === 0xff && b[1] === 0xd8) return true;
+  return b[0] === 0x89 && b[1] === 0x50 && b[2] === 0x4e && b[3] === 0x47;
+}
+
+function photoSlots(f: Flow, slots: InstallPacketDocDto["photoSlots"], images: PacketImages): void {
   const ts = f.ts;
-  const boxW = 120;
-  const boxH = 72;
+  const boxW = 150;
+  const boxH = 112;
   for (const s of slots) {
     const capW = f.width - boxW - 14;
     const capH = ts.height(s.caption, capW, BODY);
-    const h = Math.max(boxH, capH) + 8;
+    const h = Math.max(boxH, capH) + 10;
     f.ensure(h);
-    f.doc.save().rect(f.left, f.y, boxW, boxH).dash(3, { space: 3 }).lineWidth(0.7).strokeColor(COLORS.faint).stroke().undash().restore();
-    ts.line(s.attachmentId ? `Photo #${s.attachmentId}` : "Photo", f.left, f.y + boxH / 2 - 6, { size: 8, color: COLORS.faint }, { align: "center", width: boxW });
+    const img = s.attachmentId != null ? images[s.attachmentId] : undefined;
+    let drawn = false;
+    if (embeddable(img)) {
+      try {
+        const buf = Buffer.from(img.buffer, img.byteOffset, img.byteLength);
+        f.doc.save().rect(f.left, f.y, boxW, boxH).fill(COLORS.zebra).restore();
+        f.doc.image(buf, f.left, f.y, { fit: [boxW, boxH], align: "center", valign: "center" });
+        f.doc.save().rect(f.left, f.y, boxW, boxH).lineWidth(0.5).strokeColor(COLORS.rule).stroke().restore();
+        drawn = true;
+      } catch {
+        drawn = false; // an unreadable image leaves the empty slot below
+      }
+    }
+    if (!drawn) {
+      f.doc.save().rect(f.left, f.y, boxW, boxH).dash(3, { space: 3 }).lineWidth(0.7).strokeColor(COLORS.faint).stroke().undash().restore();
+      ts.line(s.attachmentId ? `Photo #${s.attachmentId}` : "Photo", f.left, f.y + boxH / 2 - 6, { size: 8, color: COLORS.faint }, { align: "center", width: boxW });
+    }
     ts.block(s.caption, f.left + boxW + 14, f.y + 2, capW, BODY);
     f.y += h;
   }

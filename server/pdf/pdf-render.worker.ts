@@ -9,7 +9,7 @@ import { renderInstallPacketPdf } from "./install-packet-pdf";
 import type { ProposalDocDto } from "../../shared/schemas/proposal";
 import type { InstallPacketDocDto } from "../../shared/schemas/install-packet";
 
-export type PdfJob = { id: number; kind: "proposal"; doc: ProposalDocDto } | { id: number; kind: "install-packet"; doc: InstallPacketDocDto };
+export type PdfJob = { id: number; kind: "proposal"; doc: ProposalDocDto } | { id: number; kind: "install-packet"; doc: InstallPacketDocDto; images?: Record<number, Uint8Array> };
 export type PdfReply = { id: number; ok: true; pdf: Uint8Array } | { id: number; ok: false; error: string };
 
 if (!parentPort) throw new Error("pdf-render.worker.ts must run in a worker thread");
@@ -18,7 +18,7 @@ loadInterFonts();
 
 port.on("message", async (job: PdfJob) => {
   try {
-    const buf = job.kind === "proposal" ? await renderProposalPdf(job.doc) : await renderInstallPacketPdf(job.doc);
+    const buf = job.kind === "proposal" ? await renderProposalPdf(job.doc) : await renderInstallPacketPdf(job.doc, { images: job.images });
     const pdf = new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
     port.postMessage({ id: job.id, ok: true, pdf } satisfies PdfReply, [pdf.buffer as ArrayBuffer]);
   } catch (err) {

@@ -23,7 +23,7 @@ interface Slot {
   pending: Map<number, { resolve: (b: Buffer) => void; reject: (e: Error) => void }>;
 }
 
-type JobInput = { kind: "proposal"; doc: ProposalDocDto } | { kind: "install-packet"; doc: InstallPacketDocDto };
+type JobInput = { kind: "proposal"; doc: ProposalDocDto } | { kind: "install-packet"; doc: InstallPacketDocDto; images?: Record<number, Uint8Array> };
 
 export class PdfWorkerPool {
   private slots: (Slot | null)[];
@@ -124,8 +124,9 @@ export function renderProposalPdfInWorker(doc: ProposalDocDto): Promise<Buffer> 
   return pdfWorkerPool().render({ kind: "proposal", doc });
 }
 
-export function renderInstallPacketPdfInWorker(doc: InstallPacketDocDto): Promise<Buffer> {
-  return pdfWorkerPool().render({ kind: "install-packet", doc });
+/** `images`: photo bytes (JPEG/PNG) by attachment id for the packet's photo slots. */
+export function renderInstallPacketPdfInWorker(doc: InstallPacketDocDto, images?: Record<number, Uint8Array>): Promise<Buffer> {
+  return pdfWorkerPool().render({ kind: "install-packet", doc, images });
 }
 
 /** Stops the shared pool (tests, shutdown). */
