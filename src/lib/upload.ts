@@ -8,16 +8,18 @@ export type UploadOptions = {
   /** Called with the fraction sent, 0–1. */
   onProgress?: (fraction: number) => void;
   signal?: AbortSignal;
+  /** POST by default; PUT replaces a single file (the company logo). */
+  method?: "POST" | "PUT";
 };
 
-function sendOnce<T>(path: string, form: FormData, token: string, { onProgress, signal }: UploadOptions): Promise<T> {
+function sendOnce<T>(path: string, form: FormData, token: string, { onProgress, signal, method = "POST" }: UploadOptions): Promise<T> {
   return new Promise<T>((resolve, reject) => {
     if (signal?.aborted) {
       reject(new DOMException("The upload was cancelled", "AbortError"));
       return;
     }
     const xhr = new XMLHttpRequest();
-    xhr.open("POST", `/api${path}`);
+    xhr.open(method, `/api${path}`);
     xhr.withCredentials = true;
     xhr.setRequestHeader("Accept", "application/json");
     xhr.setRequestHeader("X-CSRF-Token", token);
@@ -43,7 +45,7 @@ function sendOnce<T>(path: string, form: FormData, token: string, { onProgress, 
   });
 }
 
-/** POSTs `form` to `/api${path}`; resolves with the parsed JSON body, rejects with ApiError. */
+/** Sends `form` (POST, or PUT) to `/api${path}`; resolves with the parsed JSON body, rejects with ApiError. */
 export async function uploadFiles<T>(path: string, form: FormData, options: UploadOptions = {}): Promise<T> {
   try {
     return await sendOnce<T>(path, form, await getCsrfToken(), options);

@@ -16,6 +16,7 @@ import { Input } from "@/components/ui/input";
 import { Textarea } from "@/components/ui/textarea";
 import { toast } from "@/components/ui/toast";
 import { useSaveCompany } from "@/features/company/api/queries";
+import { LogoField } from "@/features/company/components/logo-field";
 import { parseNumber } from "@/features/price-book/lib/money";
 
 type Values = {
@@ -153,17 +154,7 @@ export function CompanyProfileForm({ company }: { company: CompanyDto }) {
             <h2 id="co-logo" className={h2}>
               Logo
             </h2>
-            <div className="mt-3 flex items-start gap-3">
-              <div
-                aria-hidden="true"
-                className="flex size-14 shrink-0 items-center justify-center rounded-md border border-dashed border-steel-300 bg-steel-50 text-lg font-semibold text-steel-400"
-              >
-                {company.name.slice(0, 1).toUpperCase()}
-              </div>
-              <p className="text-sm text-steel-600">
-                Logo upload comes with file uploads. Until then, proposals print your trading name in place of a logo.
-              </p>
-            </div>
+            <LogoField company={company} canEdit />
           </section>
           <section className={section} aria-labelledby="co-numbering">
             <h2 id="co-numbering" className={h2}>
