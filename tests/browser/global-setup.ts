@@ -28,6 +28,16 @@ const freePort = () =>
   });
 
 export async function setup(project: TestProject) {
+  try {
+    await start(project);
+  } catch (err) {
+    // vitest does not run teardown when setup throws: stop what was started, or the run never exits
+    await teardown();
+    throw err;
+  }
+}
+
+async function start(project: TestProject) {
   ensureChromium();
   if (!(process.env.DB_PORT && process.env.NODE_ENV === "test")) {
     db = await startTestMariaDb(() => {});
@@ -64,7 +74,9 @@ export async function setup(project: TestProject) {
 
 export async function teardown() {
   await server?.close();
+  server = null;
   await db?.stop();
+  db = null;
 }
 
 declare module "vitest" {
