@@ -65,6 +65,11 @@ async function main() {
     } else {
       console.log("E-mail goes out through SMTP_URL.");
     }
+    if (server.paymentFake) {
+      console.log(`Payments go to the local test payment service at ${server.paymentFake.url} (test cards only; nothing is charged)`);
+    } else {
+      console.log("Payments go to the hosted payment service (STRIPE_SECRET_KEY).");
+    }
     if (config.seedDemo) {
       console.log(`Demo sign-ins (demo data only), password "${DEMO_PASSWORD}":`);
       for (const u of DEMO_USERS) console.log(`  ${u.role.padEnd(10)} ${u.email}`);

@@ -16,6 +16,10 @@ import { apiRouter } from "./routes/index";
 import { healthRouter } from "./routes/health.routes";
 import { UsersService } from "./services/users.service";
 import { createDiskStorage, type Storage } from "./storage/storage";
+import type { PaymentClient } from "./payments/stripe-client";
+import type { PaymentConfig } from "./payments/config";
+import { publicProposalsRouter } from "./routes/public-proposals.routes";
+import { paymentsWebhookRouter } from "./routes/payments-webhook.routes";
 
 export interface AppDeps {
   config: Config;
@@ -30,6 +34,8 @@ export interface AppDeps {
   clientDir?: string;
   /** Uploaded files; defaults to the disk folder named by config.uploads.storageDir. */
   storage?: Storage;
+  /** Deposits: the SDK client (pointed at the local fake or the hosted service) and its settings. */
+  payments?: { stripe: PaymentClient; config: PaymentConfig };
 }
 
 export interface AppContext extends AppDeps {
@@ -75,6 +81,10 @@ export function createApp(deps: AppDeps): Express {
 
   // No session needed: health answers even when the session store cannot.
   app.use("/api/health", healthRouter(deps.sequelize));
+
+  // No session either: the payment webhook (raw body, verified by signature) and the homeowner's token routes.
+  app.use("/api/payments/webhook", paymentsWebhookRouter(ctx));
+  app.use("/api/proposals", express.json({ limit: "100kb" }), publicProposalsRouter(ctx));
 
   app.use("/api", express.json({ limit: "1mb" }));
   app.use(

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { loadPaymentConfig, type PaymentConfig } from "./payments/config";
 
 const bool = z
   .enum(["1", "0", "true", "false", "yes", "no", ""])
@@ -42,6 +43,10 @@ const envSchema = z.object({
   STORAGE_DIR: z.string().min(1).default(".data/storage"),
   /** Largest accepted upload, bytes per file (25 MB). */
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(25 * 1024 * 1024),
+  /** How often the proposal scheduler expires proposals and sends reminders (ms). */
+  PROPOSAL_SCHEDULER_MS: z.coerce.number().int().min(1_000).max(3_600_000).default(60_000),
+  /** Days before a proposal's expiry that the homeowner gets one reminder e-mail. */
+  REMINDER_DAYS_BEFORE: z.coerce.number().int().min(0).max(60).default(3),
 });
 
 export interface Config {
@@ -63,6 +68,10 @@ export interface Config {
   outbox: { pollMs: number; maxAttempts: number };
   /** Uploads: the storage folder and the per-file size limit. */
   uploads: { storageDir: string; maxBytes: number };
+  /** Deposits: the local test payment service (useFake) or the hosted one (STRIPE_* variables). */
+  payments: PaymentConfig;
+  /** The proposal scheduler's interval and the reminder's lead time. */
+  proposals: { schedulerMs: number; reminderDaysBefore: number };
 }
 
 /** Parses the environment once; a bad value stops the process with a clear message. */
@@ -110,6 +119,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     },
     outbox: { pollMs: e.OUTBOX_POLL_MS, maxAttempts: e.OUTBOX_MAX_ATTEMPTS },
     uploads: { storageDir: e.STORAGE_DIR, maxBytes: e.UPLOAD_MAX_BYTES },
+    // Under NODE_ENV=test the fake takes any free port unless one is named (as the mail catcher does).
+    payments: loadPaymentConfig(e.NODE_ENV === "test" && env.PAYMENT_FAKE_PORT === undefined ? { ...env, PAYMENT_FAKE_PORT: "0" } : env),
+    proposals: { schedulerMs: e.PROPOSAL_SCHEDULER_MS, reminderDaysBefore: e.REMINDER_DAYS_BEFORE },
   };
 }
 

@@ -13,12 +13,17 @@ import { createSmtpMailer } from "./mail/mailer";
 import type { MailCatcher } from "./mail/catcher";
 import { OutboxWorker } from "./services/outbox.service";
 import { createDiskStorage } from "./storage/storage";
+import type { PaymentFake } from "./fakes/payment-fake";
+import { createPaymentClient } from "./payments/stripe-client";
+import { startProposalScheduler } from "./services/proposal-scheduler";
 
 export interface RunningServer {
   server: Server;
   url: string;
   /** The local mail catcher when no SMTP_URL is set (its inbox is at /dev/mail). */
   mailCatcher?: MailCatcher;
+  /** The local test payment service when PAYMENTS_USE_FAKE (the default without real keys). */
+  paymentFake?: PaymentFake;
   close(): Promise<void>;
 }
 
@@ -70,23 +75,62 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
     tagForCatcher: Boolean(mailCatcher),
   });
   const storage = createDiskStorage(path.resolve(root, config.uploads.storageDir)); // outside dist/, never served statically
-  const app = createApp({ config, logger, sequelize, sessionStore, mailer, mailCatcher, clientDir: path.join(root, "dist"), storage });
+  // Payments: the local test payment service in this process (its webhooks come back to this app), or the hosted one.
+  let paymentFake: PaymentFake | undefined;
+  if (config.payments.useFake && config.payments.fake) {
+    try {
+      const { startPaymentFake } = await import("./fakes/payment-fake");
+      paymentFake = await startPaymentFake({
+        port: config.payments.fake.port,
+        host: config.payments.fake.host,
+        webhookSecret: config.payments.webhookSecret,
+        apiKey: config.payments.secretKey,
+        log: (m) => logger.debug(m),
+      });
+    } catch (err) {
+      await mailCatcher?.close();
+      sessionStore.stopExpiringSessions();
+      await sequelize.close();
+      const busy = (err as { code?: string }).code === "EADDRINUSE";
+      throw busy ? new Error(`The payment fake's port ${config.payments.fake.port} is in use: set PAYMENT_FAKE_PORT (0 = any free port)`) : err;
+    }
+  }
+  const stripe = createPaymentClient({
+    secretKey: config.payments.secretKey,
+    fakeHost: paymentFake ? { host: "127.0.0.1", port: paymentFake.port, protocol: "http" } : undefined,
+  });
+  const app = createApp({
+    config,
+    logger,
+    sequelize,
+    sessionStore,
+    mailer,
+    mailCatcher,
+    clientDir: path.join(root, "dist"),
+    storage,
+    payments: { stripe, config: config.payments },
+  });
   const server = await new Promise<Server>((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s));
     s.on("error", reject);
   }).catch(async (err) => {
     await mailCatcher?.close();
+    await paymentFake?.close();
     throw err;
   });
   const addr = server.address();
   const port = typeof addr === "object" && addr ? addr.port : config.port;
+  paymentFake?.setWebhookUrl(`http://127.0.0.1:${port}/api/payments/webhook`);
   outbox.start();
+  const scheduler = startProposalScheduler({ sequelize, storage, logger, reminderDaysBefore: config.proposals.reminderDaysBefore }, config.proposals.schedulerMs);
   return {
     server,
     url: `http://localhost:${port}`,
     mailCatcher,
+    paymentFake,
     async close() {
       sessionStore.stopExpiringSessions();
+      await scheduler.stop();
       await new Promise<void>((resolve) => {
         server.close(() => resolve());
         server.closeAllConnections();
@@ -94,6 +138,7 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
       await outbox.stop(); // lets a delivery in progress finish and record its outcome
       mailer.close?.();
       await mailCatcher?.close();
+      await paymentFake?.close();
       await sequelize.close();
     },
   };

@@ -14,6 +14,7 @@ import { CompanySettings, initCompanySettings } from "./company-settings.model";
 import { initMailModels } from "./mail.models";
 import { Approval, Quote, QuoteLine, QuoteOption, QuoteRevision, initQuoteModels } from "./quote.models";
 import { Attachment, initAttachment } from "./attachment.model";
+import { Payment, PaymentEvent, Proposal, RevisionPdf, initProposalModels } from "./proposal.models";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -51,6 +52,7 @@ export function initModels(sequelize: Sequelize): void {
   QuoteRevision.belongsTo(User, { as: "returner", foreignKey: "returnedBy", constraints: false });
   initAttachment(sequelize);
   Attachment.belongsTo(User, { as: "uploader", foreignKey: "uploadedBy", constraints: false });
+  initProposalModels(sequelize);
   initialisedWith = sequelize;
 }
 
@@ -59,3 +61,4 @@ export { Customer, Job, JobCrew, Roof };
 export { CatalogItem, CatalogItemPrice, LaborRate, CompanySettings };
 export { Quote, QuoteRevision, QuoteOption, QuoteLine, Approval };
 export { Attachment };
+export { Proposal, Payment, PaymentEvent, RevisionPdf };

@@ -1,3 +1,4 @@
+import type { JobProposalProgress } from "../../shared/schemas/proposal-api";
 import {
   DataTypes,
   Model,
@@ -35,6 +36,8 @@ export class Job extends Model<InferAttributes<Job>, InferCreationAttributes<Job
   declare customer?: NonAttribute<Customer>;
   declare estimator?: NonAttribute<User | null>;
   declare crew?: NonAttribute<User[]>;
+  /** The latest proposal's progress, attached by JobsService.list / getDetail (not a column). */
+  declare proposalProgress?: NonAttribute<JobProposalProgress | null>;
 }
 
 export const initJob = (sequelize: Sequelize) =>

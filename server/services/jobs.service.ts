@@ -17,6 +17,7 @@ import { recordAudit } from "./audit.service";
 import { CustomersService, likeContains } from "./customers.service";
 import { computeStoredTakeoff, takeoffSquares } from "./roof-takeoff";
 import { parseJsonColumn } from "../presenters/job.presenter";
+import { proposalProgressFor } from "./proposal-progress";
 
 type Actor = Express.User;
 
@@ -109,6 +110,8 @@ export class JobsService {
     });
     const at = new Map(ids.map((id, i) => [id, i]));
     rows.sort((a, b) => at.get(a.id)! - at.get(b.id)!);
+    const progress = await proposalProgressFor(ids); // one extra query for the page's jobs
+    for (const j of rows) j.proposalProgress = progress.get(j.id) ?? null;
     return { rows, count };
   }
 
@@ -135,6 +138,7 @@ export class JobsService {
     await this.get(id, actor, transaction);
     const job = await Job.findOne({ where: { id, companyId: actor.companyId }, include: detailIncludes, transaction });
     if (!job) throw notFound("Job");
+    job.proposalProgress = (await proposalProgressFor([job.id], transaction)).get(job.id) ?? null;
     return job;
   }
 

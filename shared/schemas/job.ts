@@ -3,6 +3,7 @@
  * rules the client uses to offer only the moves the server accepts.
  */
 import { z } from "zod";
+import { jobProposalProgressSchema } from "./proposal-api";
 import { siteSchema } from "./takeoff";
 import { archivedFlagSchema, customerInputSchema, optionalText, pagingShape } from "./customer";
 
@@ -166,6 +167,8 @@ export const jobDtoSchema = z.object({
   /** From the stored takeoff; null until a roof is saved. */
   squares: z.number().nullable(),
   quoteTotalCents: z.number().int().nullable().optional(),
+  /** The latest proposal's progress (sent, viewed, accepted/declined, deposit); null before one is sent. */
+  proposal: jobProposalProgressSchema.nullable().optional(),
   archivedAt: z.string().nullable(),
   createdAt: z.string(),
   updatedAt: z.string(),
@@ -183,6 +186,7 @@ export const jobListItemSchema = jobDtoSchema
     estimatorId: true,
     squares: true,
     quoteTotalCents: true,
+    proposal: true,
     archivedAt: true,
     createdAt: true,
     updatedAt: true,

@@ -11,6 +11,10 @@ import { testSequelize } from "./db";
 import { createSmtpMailer, type Mailer } from "../../server/mail/mailer";
 import { createMailCatcher, type MailCatcher } from "../../server/mail/catcher";
 import { OutboxWorker, type OutboxRunResult, type OutboxWorkerOptions } from "../../server/services/outbox.service";
+import { startPaymentFake, type PaymentFake } from "../../server/fakes/payment-fake";
+import { createPaymentClient, type PaymentClient } from "../../server/payments/stripe-client";
+import { LOCAL_FAKE_SECRET_KEY, LOCAL_FAKE_WEBHOOK_SECRET, type PaymentConfig } from "../../server/payments/config";
+import type { Server } from "node:http";
 
 const stores: Array<ReturnType<typeof createSessionStore>> = [];
 
@@ -73,7 +77,10 @@ export async function deliverOutbox(): Promise<OutboxRunResult> {
  * The real app on the real test database, without listening. E-mail goes through real SMTP to this
  * file's catcher, which /api/dev/mail shows unless the config names an SMTP_URL.
  */
-export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: Mailer; storage?: Storage } = {}): Express {
+export function createTestApp(
+  overrides: Partial<Config> = {},
+  deps: { mailer?: Mailer; storage?: Storage; payments?: { stripe: PaymentClient; config: PaymentConfig } } = {},
+): Express {
   const sequelize = testSequelize();
   const config = testConfig(overrides);
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
@@ -86,11 +93,58 @@ export function createTestApp(overrides: Partial<Config> = {}, deps: { mailer?: 
     mailer: deps.mailer ?? testMailer,
     mailCatcher: config.mail.useCatcher ? testMailCatcher() : undefined,
     storage: deps.storage ?? testStorage(),
+    payments: deps.payments,
   });
+}
+
+export interface TestPayments {
+  fake: PaymentFake;
+  stripe: PaymentClient;
+  config: PaymentConfig;
+}
+
+let payments: Promise<TestPayments> | null = null;
+
+/**
+ * This test file's local payment fake (port 0, short webhook retries) and an SDK client pointed at it.
+ * Its webhooks go nowhere until `fake.setWebhookUrl(...)` names a listening app (see listenTestApp).
+ */
+export function testPayments(): Promise<TestPayments> {
+  return (payments ??= (async () => {
+    const fake = await startPaymentFake({
+      port: 0,
+      webhookSecret: LOCAL_FAKE_WEBHOOK_SECRET,
+      apiKey: LOCAL_FAKE_SECRET_KEY,
+      webhookRetryDelaysMs: [50, 200],
+    });
+    const stripe = createPaymentClient({ secretKey: LOCAL_FAKE_SECRET_KEY, fakeHost: { host: "127.0.0.1", port: fake.port, protocol: "http" } });
+    const config: PaymentConfig = { useFake: true, secretKey: LOCAL_FAKE_SECRET_KEY, webhookSecret: LOCAL_FAKE_WEBHOOK_SECRET, fake: { host: "127.0.0.1", port: fake.port } };
+    return { fake, stripe, config };
+  })());
+}
+
+const listening: Server[] = [];
+
+/** Listens on 127.0.0.1:0 (so the payment fake can POST webhooks to it); closed by stopTestStores. */
+export async function listenTestApp(app: Express): Promise<{ url: string; server: Server }> {
+  const server = await new Promise<Server>((resolve, reject) => {
+    const s = app.listen(0, "127.0.0.1", () => resolve(s));
+    s.on("error", reject);
+  });
+  listening.push(server);
+  const addr = server.address();
+  const port = typeof addr === "object" && addr ? addr.port : 0;
+  return { url: `http://127.0.0.1:${port}`, server };
 }
 
 export function stopTestStores(): void {
   for (const s of stores.splice(0)) s.stopExpiringSessions();
+  for (const s of listening.splice(0)) {
+    s.close();
+    s.closeAllConnections();
+  }
+  if (payments) void payments.then((p) => p.fake.close()).catch(() => undefined);
+  payments = null;
   smtp?.mailer.close?.();
   smtp = null;
   void catcher?.close();

@@ -21,6 +21,10 @@ import * as q3 from "./20261201400003-create-quote-options";
 import * as q4 from "./20261201400004-create-quote-lines";
 import * as q5 from "./20261201400005-create-approvals";
 import * as u1 from "./20261201500001-create-attachments";
+import * as ps1 from "./20261201600001-create-proposals";
+import * as ps2 from "./20261201600002-create-payments";
+import * as ps3 from "./20261201600003-create-payment-events";
+import * as ps4 from "./20261201600004-create-revision-pdfs";
 
 interface Migration {
   name: string;
@@ -52,4 +56,8 @@ export const migrations: Migration[] = [
   { name: "20261201400004-create-quote-lines", ...q4 },
   { name: "20261201400005-create-approvals", ...q5 },
   { name: "20261201500001-create-attachments", ...u1 },
+  { name: "20261201600001-create-proposals", ...ps1 },
+  { name: "20261201600002-create-payments", ...ps2 },
+  { name: "20261201600003-create-payment-events", ...ps3 },
+  { name: "20261201600004-create-revision-pdfs", ...ps4 },
 ];
