@@ -23,6 +23,19 @@ export function createAppRoutes(qc: QueryClient): RouteObject[] {
       hydrateFallbackElement: <FullPageSpinner />,
       children: [
         { path: paths.signIn, loader: signInLoader(qc), element: <SignInRoute /> },
+        // public pages: no session loader
+        {
+          path: paths.forgotPassword,
+          lazy: () => import("@/app/routes/password-reset").then((m) => ({ Component: m.ForgotPasswordRoute })),
+        },
+        {
+          path: paths.resetPassword,
+          lazy: () => import("@/app/routes/password-reset").then((m) => ({ Component: m.ResetPasswordRoute })),
+        },
+        {
+          path: "/p/:token",
+          lazy: () => import("@/app/routes/proposal-public").then((m) => ({ Component: m.ProposalPublicRoute })),
+        },
         {
           id: "app",
           loader: protectedLoader(qc),
@@ -36,6 +49,10 @@ export function createAppRoutes(qc: QueryClient): RouteObject[] {
                 {
                   path: paths.jobs,
                   lazy: () => import("@/app/routes/jobs").then((m) => ({ Component: m.JobsRoute })),
+                },
+                {
+                  path: "/jobs/:jobId/packet",
+                  lazy: () => import("@/app/routes/install-packet").then((m) => ({ Component: m.InstallPacketRoute })),
                 },
                 {
                   path: "/jobs/:jobId/:section?",
@@ -88,6 +105,15 @@ export function createAppRoutes(qc: QueryClient): RouteObject[] {
                       path: paths.team,
                       lazy: () =>
                         import("@/app/routes/team").then((m) => ({ Component: m.TeamRoute, loader: m.teamLoader(qc) })),
+                    },
+                  ],
+                },
+                {
+                  element: <RoleGate screen="devMail" name="The test inbox" />,
+                  children: [
+                    {
+                      path: paths.devMail,
+                      lazy: () => import("@/app/routes/dev-mail").then((m) => ({ Component: m.DevMailRoute })),
                     },
                   ],
                 },

@@ -10,6 +10,11 @@ export const paths = {
   account: "/account",
   customers: "/customers",
   company: "/company",
+  devMail: "/dev/mail",
+  forgotPassword: "/forgot-password",
+  resetPassword: "/reset-password",
+  /** The homeowner's proposal page (public, no sign-in). */
+  proposalPublic: (token: string) => `/p/${encodeURIComponent(token)}`,
   job: (jobId: number | string) => `/jobs/${jobId}`,
   jobSection: (jobId: number | string, section: JobSection) => `/jobs/${jobId}/${section}`,
 } as const;
@@ -40,6 +45,7 @@ export const screenAccess = {
   account: ROLES,
   customers: ["owner", "estimator"],
   company: ["owner"],
+  devMail: ["owner", "estimator"],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Screen = keyof typeof screenAccess;

@@ -1,4 +1,4 @@
-import { redirect, useLocation, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
+import { Link, redirect, useLocation, useNavigate, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import { useEffect } from "react";
 import { useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { Alert } from "@/components/ui/alert";
@@ -39,7 +39,9 @@ export function SignInRoute() {
   const navigate = useNavigate();
   const [params] = useSearchParams();
   const location = useLocation();
-  const signedOut = (location.state as { signedOut?: boolean } | null)?.signedOut === true;
+  const state = location.state as { signedOut?: boolean; passwordReset?: boolean } | null;
+  const signedOut = state?.signedOut === true;
+  const passwordReset = state?.passwordReset === true;
   const next = params.get("next");
 
   return (
@@ -64,6 +66,11 @@ export function SignInRoute() {
               You're signed out.
             </Alert>
           )}
+          {passwordReset && (
+            <Alert tone="success" className="mb-4">
+              Your new password is set. Sign in with it.
+            </Alert>
+          )}
           {next && next !== paths.jobs && !signedOut && (
             <Alert tone="info" className="mb-4">
               Sign in to continue.
@@ -77,7 +84,12 @@ export function SignInRoute() {
           />
         </div>
         <p className="mt-4 text-center text-xs leading-relaxed text-steel-600">
-          Forgot your password? Your company's owner can set a new one on the Team page.
+          <Link
+            to={paths.forgotPassword}
+            className="font-medium text-accent-700 underline-offset-2 hover:underline focus-visible:rounded-sm focus-visible:outline-none focus-visible:ring-2 focus-visible:ring-accent-500"
+          >
+            Forgot your password?
+          </Link>
         </p>
       </div>
     </div>

@@ -85,6 +85,21 @@ export function AppShell({ user, onSignOut, signingOut = false, busy = false, ch
                 {user.name}, {ROLE_LABELS[user.role]}
               </span>
             </div>
+            {canOpen("devMail", user.role) && (
+              <NavLink
+                to={paths.devMail}
+                title="E-mail the app sent, caught locally"
+                className={({ isActive }) =>
+                  cn(
+                    "hidden h-8 items-center rounded-md px-2.5 text-xs font-medium transition-colors sm:flex",
+                    darkFocus,
+                    isActive ? "bg-steel-800 text-white" : "text-steel-400 hover:bg-steel-800 hover:text-white",
+                  )
+                }
+              >
+                Test inbox
+              </NavLink>
+            )}
             <NavLink
               to={paths.account}
               className={({ isActive }) =>

@@ -5,6 +5,7 @@ import { cn } from "@/lib/cn";
 import { paths } from "@/config/paths";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { JobStatusBadge } from "@/features/jobs/components/job-status-badge";
+import { ProposalProgressBadge, proposalOf } from "@/features/jobs/components/proposal-progress";
 import { DASH, formatDateTime, formatMoney, formatShortDate, formatSquares, shortSite } from "@/features/jobs/lib/format";
 import { sortOf, type SortColumn } from "@/features/jobs/lib/board-params";
 
@@ -89,6 +90,7 @@ export function JobsTable({ jobs, sort, onSort, showQuoteTotal, stale }: Props) 
           {showQuoteTotal && (
             <SortHeader column="quoteTotal" label="Quote" sort={sort} onSort={onSort} alignRight className="w-24 text-right" />
           )}
+          {showQuoteTotal && <Th className="hidden w-36 md:table-cell">Proposal</Th>}
           <Th className="hidden w-36 lg:table-cell">Estimator</Th>
           <SortHeader column="updatedAt" label="Last change" sort={sort} onSort={onSort} className="w-32" />
         </tr>
@@ -127,6 +129,11 @@ export function JobsTable({ jobs, sort, onSort, showQuoteTotal, stale }: Props) 
               {showQuoteTotal && (
                 <Td className="py-1.5 text-right tabular-nums">
                   {j.quoteTotalCents == null ? <Muted>{DASH}</Muted> : formatMoney(j.quoteTotalCents)}
+                </Td>
+              )}
+              {showQuoteTotal && (
+                <Td className="hidden py-1.5 md:table-cell">
+                  <ProposalProgressBadge progress={proposalOf(j)} />
                 </Td>
               )}
               <Td className="hidden max-w-[10rem] truncate py-1.5 text-steel-700 lg:table-cell">{j.estimator?.name ?? <Muted>Unassigned</Muted>}</Td>
