@@ -36,6 +36,8 @@ const envSchema = z.object({
   MAIL_FROM: z.string().min(3).default("Ridgewright <no-reply@example.com>"),
   /** Port of the local mail catcher (127.0.0.1); 0 = any free port (the default under NODE_ENV=test). */
   MAIL_CATCHER_PORT: z.coerce.number().int().min(0).max(65535).optional(),
+  /** Folder the local mail catcher keeps its messages in (relative to the project); "" = memory only. Default .data/mail (memory only under NODE_ENV=test). */
+  MAIL_CATCHER_DIR: z.string().optional(),
   /** How often the outbox worker looks for due e-mails; at most 4 s so a new e-mail goes out within 5 s. */
   OUTBOX_POLL_MS: z.coerce.number().int().min(50).max(4_000).default(1_500),
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
@@ -64,7 +66,7 @@ export interface Config {
   trustProxy: boolean;
   logLevel: "debug" | "info" | "warn" | "error" | "silent";
   /** E-mail: a real SMTP server when smtpUrl is set, else the local catcher (useCatcher). */
-  mail: { smtpUrl?: string; from: string; catcherPort: number; useCatcher: boolean };
+  mail: { smtpUrl?: string; from: string; catcherPort: number; useCatcher: boolean; catcherDir?: string };
   outbox: { pollMs: number; maxAttempts: number };
   /** Uploads: the storage folder and the per-file size limit. */
   uploads: { storageDir: string; maxBytes: number };
@@ -116,6 +118,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       from: e.MAIL_FROM,
       catcherPort: e.MAIL_CATCHER_PORT ?? (e.NODE_ENV === "test" ? 0 : 1025),
       useCatcher: !e.SMTP_URL,
+      catcherDir: (e.MAIL_CATCHER_DIR ?? (e.NODE_ENV === "test" ? "" : ".data/mail")) || undefined,
     },
     outbox: { pollMs: e.OUTBOX_POLL_MS, maxAttempts: e.OUTBOX_MAX_ATTEMPTS },
     uploads: { storageDir: e.STORAGE_DIR, maxBytes: e.UPLOAD_MAX_BYTES },

@@ -41,7 +41,7 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
     if (seeded) logger.info("demo data seeded");
   }
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
-  // E-mail: a real SMTP server (SMTP_URL), else the local catcher in this process (kept in .data/mail).
+  // E-mail: a real SMTP server (SMTP_URL), else the local catcher in this process (kept in MAIL_CATCHER_DIR, .data/mail by default).
   let mailCatcher: MailCatcher | undefined;
   if (config.mail.useCatcher) {
     try {
@@ -50,7 +50,7 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
       mailCatcher = await startMailCatcher({
         port: config.mail.catcherPort,
         host: "127.0.0.1",
-        dir: config.env === "test" ? undefined : path.join(root, ".data/mail"),
+        dir: config.mail.catcherDir ? path.resolve(root, config.mail.catcherDir) : undefined,
       });
     } catch (err) {
       sessionStore.stopExpiringSessions();

@@ -3,7 +3,7 @@
  *
  * - A deposit is asked for only after acceptance (409 otherwise) and never twice once paid (409). One
  *   open payment row (pending or failed) per proposal is reused, with the idempotency key
- *   `deposit-<paymentId>-<createdAt>`, so a double click or a retried request never makes a second session.
+ *   `deposit-<proposal token hash prefix>-<paymentId>`, so a double click or a retried request never makes a second session.
  * - A payment becomes paid only from a verified `checkout.session.completed` (payment_status paid) or
  *   `checkout.session.async_payment_succeeded` webhook, never from the browser coming back.
  * - Each event id is recorded in payment_events in the same transaction as the change it causes; the
@@ -82,8 +82,9 @@ export class PaymentsService {
       cancelUrl: `${link}?deposit=cancelled`,
       metadata: { proposalId: String(proposal.id), paymentId: String(payment.id) },
       clientReferenceId: `payment-${payment.id}`,
-      // The row's id and creation time: stable for this row, never reused after a database reset.
-      idempotencyKey: `deposit-${payment.id}-${Math.floor(payment.createdAt.getTime() / 1000)}`,
+      // Stable for this payment row; the proposal's random token hash keeps it unique across databases
+      // (ids start again after a reset, and the provider remembers keys for a day).
+      idempotencyKey: `deposit-${proposal.tokenHash.slice(0, 24)}-${payment.id}`,
     });
     if (payment.providerSessionId !== session.id) {
       await Payment.update({ providerSessionId: session.id }, { where: { id: payment.id } });

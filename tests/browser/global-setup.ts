@@ -57,6 +57,7 @@ async function start(project: TestProject) {
     PUBLIC_URL: `http://127.0.0.1:${port}`,
     DB_NAME: database,
     MAIL_CATCHER_PORT: "0",
+    MAIL_CATCHER_DIR: "", // memory only: a fresh inbox for each run's fresh database, apart from npm start's .data/mail
     PAYMENT_FAKE_PORT: "0",
     OUTBOX_POLL_MS: "500",
     LOG_LEVEL: "warn",
