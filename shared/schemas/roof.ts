@@ -11,7 +11,11 @@
 import { z } from "zod";
 import { MAX_PLANES, planeSchema, stackSchema, takeoffInputSchema } from "./takeoff";
 
-/** A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file). */
+/**
+ * A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file);
+ * for a PDF, `page` picks the page. The image's lower-left corner is at `originFt`, it is `widthFt` wide
+ * (its height follows its aspect ratio) and turned `rotationDeg` counter-clockwise about that corner.
+ */
 export const underlaySchema = z.object({
   src: z
     .string({ error: "Required" })
@@ -26,6 +30,8 @@ export const underlaySchema = z.object({
   rotationDeg: z.number({ error: "Enter a number" }).min(-360, "At least -360").max(360, "At most 360").default(0),
   opacity: z.number({ error: "Enter a number" }).min(0, "At least 0").max(1, "At most 1").default(0.5),
   visible: z.boolean().default(true),
+  /** The page shown when `src` is a PDF; left out means 1 (and an image has only that one). */
+  page: z.number({ error: "Enter a number" }).int("Must be a whole number").min(1, "At least 1").max(10_000, "At most 10000").optional(),
 });
 export type Underlay = z.output<typeof underlaySchema>;
 

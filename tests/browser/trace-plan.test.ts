@@ -153,8 +153,16 @@ describe("tracing over a plan in the roof sketch", () => {
     page.on("pageerror", (e) => failed.push(String(e)));
     await signIn(page, "estimator@example.com");
     // a real PDF of several pages from the app itself: a demo job's install packet
-    const list = (await (await page.request.get("/api/jobs?status=estimating")).json()) as { data: { id: number }[] };
-    const jobId = list.data[0]!.id;
+    const list = (await (await page.request.get("/api/jobs?status=estimating,proposed")).json()) as { data: { id: number }[] };
+    let jobId = 0;
+    for (const j of list.data) {
+      const roof = (await (await page.request.get(`/api/jobs/${j.id}/roof`)).json()) as { data: { planes: unknown[]; underlay?: unknown } };
+      if (roof.data.planes.length > 0 && !roof.data.underlay) {
+        jobId = j.id;
+        break;
+      }
+    }
+    expect(jobId).toBeGreaterThan(0);
     const pdf = await page.request.get(`/api/jobs/${jobId}/install-packet.pdf`);
     expect(pdf.headers()["content-type"]).toContain("application/pdf");
     const pdfFile = path.resolve("test-results/trace-plan/plan-set.pdf");
@@ -165,9 +173,9 @@ describe("tracing over a plan in the roof sketch", () => {
     await page.getByRole("button", { name: "Underlay" }).click();
     await page.getByTestId("underlay-file").setInputFiles(pdfFile);
     const image = page.getByTestId("underlay-image");
-    await image.waitFor({ timeout: 30_000 });
+    // the page rendered to a PNG in memory (an image file would be shown from a blob: URL)
+    await expect.poll(() => image.getAttribute("href"), { timeout: 30_000 }).toMatch(/^data:image\/png;base64,/);
     const first = await image.getAttribute("href");
-    expect(first).toMatch(/^data:image\/png;base64,/);
     const panel = page.getByTestId("underlay-panel");
     await expect.poll(() => panel.innerText()).toMatch(/of \d+/);
     const pages = Number(/of (\d+)/.exec(await panel.innerText())![1]);
@@ -178,6 +186,11 @@ describe("tracing over a plan in the roof sketch", () => {
       await expect.poll(() => image.getAttribute("href"), { timeout: 30_000 }).not.toBe(first);
     }
     await shot(page, "trace-plan", "06-pdf-page");
+    // the roof keeps the file's URL and the page, not the rendered picture
+    await page.getByRole("button", { name: "Save", exact: true }).click();
+    await expect.poll(() => page.getByText("Roof saved.").count()).toBeGreaterThan(0);
+    const saved = (await (await page.request.get(`/api/jobs/${jobId}/roof`)).json()) as { data: { underlay?: { src: string; page: number } } };
+    expect(saved.data.underlay).toMatchObject({ src: expect.stringMatching(/^\/api\/attachments\/\d+\/file(\?|$)/), page: pages >= 2 ? 2 : 1 });
     expect(failed).toEqual([]);
     await page.close();
   });

@@ -24,6 +24,7 @@ import {
   type View,
 } from "./geometry";
 import type { Selection, Tool } from "./types";
+import { underlayMatrix, type ImageSize, type Placement } from "./underlay-math";
 
 /** Pointer within this many px of a corner snaps to it. */
 export const VERTEX_SNAP_PX = 10;
@@ -55,6 +56,15 @@ interface Props {
   readOnly: boolean;
   /** Shown to screen readers as the drawing's description. */
   summary: string;
+  /** The plan image under the grid: its placement and the loaded picture (null while it loads). */
+  underlay?: { placement: Placement; opacity: number; image: (ImageSize & { url: string }) | null } | null;
+  /** "move": a drag moves the underlay; "scale": clicks pick the two points of a known distance. */
+  underlayMode?: "move" | "scale" | null;
+  /** The scale points clicked so far (plan feet, as the underlay is placed now). */
+  scalePoints?: Pt[];
+  onUnderlayPoint?: (p: Pt) => void;
+  /** Commits an underlay drag: plan feet east and north. */
+  onUnderlayMove?: (dxFt: number, dyFt: number) => void;
 }
 
 type Drag = { moves: Move[]; from: Pt; to: Pt; pointerId: number; moved: boolean };
@@ -88,11 +98,17 @@ export function PlanCanvas(props: Props) {
     readOnly,
     summary,
     liveDrag,
+    underlay = null,
+    underlayMode = null,
+    scalePoints = [],
+    onUnderlayPoint,
+    onUnderlayMove,
   } = props;
   const svgRef = useRef<SVGSVGElement>(null);
   const [hover, setHover] = useState<Pt | null>(null);
   const [drag, setDrag] = useState<Drag | null>(null);
   const [pan, setPan] = useState<Pan | null>(null);
+  const [moveDrag, setMoveDrag] = useState<Pan | null>(null);
   const spaceDown = useRef(false);
   /** Live drag: the frame scheduled, the last point committed, whether this drag committed yet. */
   const live = useRef<{ frame: number | null; committed: Pt | null }>({ frame: null, committed: null });
@@ -185,6 +201,12 @@ export function PlanCanvas(props: Props) {
       e.preventDefault();
       return startPan(false);
     }
+    if (underlayMode === "scale" && !readOnly) return onUnderlayPoint?.(fromView(view, px));
+    if (underlayMode === "move" && !readOnly) {
+      capture();
+      setMoveDrag({ start: px, dx: 0, dy: 0, pointerId: e.pointerId, clearOnClick: false });
+      return;
+    }
     if (tool === "draw" && !readOnly) {
       const p = constrain(snap(px), e.shiftKey);
       if (drawing.length >= 3 && dist(toView(view, drawing[0]), toView(view, p)) <= VERTEX_SNAP_PX) return onCloseDrawing();
@@ -234,6 +256,14 @@ export function PlanCanvas(props: Props) {
       setPan({ ...pan, dx: px[0] - pan.start[0], dy: px[1] - pan.start[1] });
       return;
     }
+    if (moveDrag && e.pointerId === moveDrag.pointerId) {
+      setMoveDrag({ ...moveDrag, dx: px[0] - moveDrag.start[0], dy: px[1] - moveDrag.start[1] });
+      return;
+    }
+    if (underlayMode === "scale" && !readOnly) {
+      setHover(fromView(view, px));
+      return;
+    }
     if (tool === "draw" && !readOnly) {
       const p = constrain(snap(px), e.shiftKey);
       if (!hover || hover[0] !== p[0] || hover[1] !== p[1]) setHover(p);
@@ -241,6 +271,10 @@ export function PlanCanvas(props: Props) {
   };
 
   const endGesture = (e: ReactPointerEvent<SVGSVGElement>, cancelled = false) => {
+    if (moveDrag && e.pointerId === moveDrag.pointerId) {
+      setMoveDrag(null);
+      if (!cancelled && (moveDrag.dx || moveDrag.dy)) onUnderlayMove?.(moveDrag.dx / view.scale, -moveDrag.dy / view.scale);
+    }
     if (drag && e.pointerId === drag.pointerId) {
       setDrag(null);
       if (live.current.frame !== null) cancelAnimationFrame(live.current.frame);
@@ -288,7 +322,17 @@ export function PlanCanvas(props: Props) {
   const draggedKey = dragged ? [...dragged.keys()].join("|") : "";
   const draggedIds = useMemo(() => (draggedKey ? new Set(draggedKey.split("|")) : null), [draggedKey]);
 
-  const cursor = pan ? "grabbing" : tool === "draw" && !readOnly ? "crosshair" : drag ? "grabbing" : "default";
+  const cursor = pan || moveDrag
+    ? "grabbing"
+    : underlayMode === "move" && !readOnly
+      ? "move"
+      : (tool === "draw" || underlayMode === "scale") && !readOnly
+        ? "crosshair"
+        : drag
+          ? "grabbing"
+          : "default";
+  // the underlay follows a pan like the grid, and a move drag on its own
+  const underlayView = moveDrag ? { ...liveView, ox: liveView.ox + moveDrag.dx, oy: liveView.oy + moveDrag.dy } : liveView;
 
   return (
     <svg
@@ -311,6 +355,7 @@ export function PlanCanvas(props: Props) {
       onPointerLeave={() => setHover(null)}
     >
       <desc id="roof-plan-summary">{summary}</desc>
+      {underlay && <UnderlayLayer underlay={underlay} view={underlayView} />}
       <Grid view={liveView} width={width} height={height} />
       <rect data-hit="background" x={0} y={0} width={width} height={height} fill="transparent" />
       <g transform={contentTransform}>
@@ -340,6 +385,7 @@ export function PlanCanvas(props: Props) {
           tool={tool}
         />
         {tool === "draw" && <DrawingLayer drawing={drawing} hover={hover} view={view} />}
+        {underlayMode === "scale" && <ScalePointsLayer points={scalePoints} hover={hover} view={view} />}
       </g>
       <ScaleBar view={liveView} height={height} />
       <g aria-hidden="true" transform={`translate(${width - 28} 30)`}>
@@ -354,6 +400,50 @@ export function PlanCanvas(props: Props) {
         </text>
       )}
     </svg>
+  );
+}
+
+/** The plan image, under the grid; it never takes the pointer. */
+function UnderlayLayer({ underlay, view }: { underlay: NonNullable<Props["underlay"]>; view: View }) {
+  const { image, placement, opacity } = underlay;
+  if (!image) return null;
+  const m = underlayMatrix(view, placement, image);
+  return (
+    <image
+      data-testid="underlay-image"
+      href={image.url}
+      x={0}
+      y={0}
+      width={image.width}
+      height={image.height}
+      preserveAspectRatio="none"
+      transform={`matrix(${m.join(" ")})`}
+      opacity={opacity}
+      pointerEvents="none"
+      aria-hidden="true"
+    />
+  );
+}
+
+/** The points picked to set the underlay's scale, and the line to the pointer while picking the second. */
+function ScalePointsLayer({ points, hover, view }: { points: Pt[]; hover: Pt | null; view: View }) {
+  const pts = points.map((p) => toView(view, p));
+  const h = hover && points.length === 1 ? toView(view, hover) : null;
+  const mark = (p: Pt, i: number) => (
+    <g key={i}>
+      <circle cx={p[0]} cy={p[1]} r={6} fill="none" stroke="#7a3b1f" strokeWidth={1.5} />
+      <path d={`M ${p[0] - 10} ${p[1]} h 20 M ${p[0]} ${p[1] - 10} v 20`} stroke="#7a3b1f" strokeWidth={1} />
+      <text x={p[0] + 9} y={p[1] - 9} fontSize={11} fontWeight={600} fill="#7a3b1f" stroke="white" strokeWidth={3} paintOrder="stroke">
+        {i + 1}
+      </text>
+    </g>
+  );
+  return (
+    <g pointerEvents="none" data-testid="scale-points">
+      {pts.length === 2 && <line x1={pts[0][0]} y1={pts[0][1]} x2={pts[1][0]} y2={pts[1][1]} stroke="#7a3b1f" strokeWidth={2} />}
+      {h && pts[0] && <line x1={pts[0][0]} y1={pts[0][1]} x2={h[0]} y2={h[1]} stroke="#7a3b1f" strokeWidth={1.5} strokeDasharray="5 4" />}
+      {pts.map(mark)}
+    </g>
   );
 }
 

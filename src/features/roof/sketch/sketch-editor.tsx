@@ -26,6 +26,9 @@ import { useTakeoffPreview } from "./preview";
 import { generateShape, QuickShapeForm, type QuickShape } from "./quick-shape-form";
 import { TotalsPanel } from "./totals-panel";
 import type { Selection, Tool } from "./types";
+import { useUnderlayImage } from "./underlay-image";
+import { moveUnderlay } from "./underlay-math";
+import { setDraftUnderlay, UnderlayPanel, type UnderlayMode } from "./underlay-panel";
 
 /** Up to this many planes a vertex drag updates the draft (and the live totals) every frame. */
 export const LIVE_DRAG_MAX_PLANES = 24;
@@ -56,6 +59,23 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
   const [view, setView] = useState<View>(() => fitView(boundsOf(planes.map((p) => p.outline)), DEFAULT_CANVAS.width, DEFAULT_CANVAS.height));
   const viewTouched = useRef(false);
   const canvasBox = useRef<HTMLDivElement>(null);
+  const [underlayOpen, setUnderlayOpen] = useState(false);
+  const [underlayMode, setUnderlayModeState] = useState<UnderlayMode>(null);
+  const [scalePoints, setScalePoints] = useState<Pt[]>([]);
+  const underlay = doc.underlay ?? null;
+  const underlayImage = useUnderlayImage(underlay?.src, underlay?.page ?? 1);
+  const setUnderlayMode = useCallback((m: UnderlayMode) => {
+    setUnderlayModeState(m);
+    setScalePoints([]);
+    if (m) {
+      setTool("select");
+      setDrawing([]);
+    }
+  }, []);
+  // the underlay removed (or undone away): leave its modes
+  useEffect(() => {
+    if (!underlay && underlayMode) setUnderlayMode(null);
+  }, [underlay, underlayMode, setUnderlayMode]);
 
   const { preview, refusedPlaneId, pending } = useTakeoffPreview(jobId, doc, canReadRules);
   const result = preview?.ok ? preview.result : null;
@@ -225,11 +245,13 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
         setHelpOpen(true);
         break;
       case "v":
+        setUnderlayMode(null);
         setTool("select");
         setDrawing([]);
         break;
       case "d":
         if (!readOnly) {
+          setUnderlayMode(null);
           setTool("draw");
           setMode("drawing");
         }
@@ -256,7 +278,8 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
         }
         break;
       case "Escape":
-        if (tool === "draw" && drawing.length) setDrawing([]);
+        if (underlayMode) setUnderlayMode(null);
+        else if (tool === "draw" && drawing.length) setDrawing([]);
         else if (tool === "draw") setTool("select");
         else setSelection(null);
         break;
@@ -310,6 +333,21 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
     [dispatch],
   );
   const onDrawPoint = useCallback((p: Pt) => setDrawing((d) => [...d, p]), []);
+  const onUnderlayPoint = useCallback((p: Pt) => setScalePoints((ps) => (ps.length >= 2 ? [p] : [...ps, p])), []);
+  const onUnderlayMove = useCallback(
+    (dx: number, dy: number) => {
+      const u = roofDraftStore.get(jobId)?.doc.underlay;
+      if (u && !readOnly) setDraftUnderlay(jobId, { ...u, ...moveUnderlay(u, dx, dy) });
+    },
+    [jobId, readOnly],
+  );
+  const canvasUnderlay = useMemo(
+    () =>
+      underlay?.visible
+        ? { placement: underlay, opacity: underlay.opacity, image: underlayImage.status === "ready" ? underlayImage.image : null }
+        : null,
+    [underlay, underlayImage],
+  );
 
   const refusedPlane = refusedPlaneId ? planes.find((p) => p.id === refusedPlaneId) ?? null : null;
   const summary = useMemo(
@@ -344,12 +382,13 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
         {!readOnly && (
           <>
             <div className="flex rounded-md border border-steel-300 p-0.5" role="group" aria-label="Tool">
-              <ToolButton active={tool === "select"} onClick={() => (setTool("select"), setDrawing([]))} title="Select (V)">
+              <ToolButton active={tool === "select" && !underlayMode} onClick={() => (setUnderlayMode(null), setTool("select"), setDrawing([]))} title="Select (V)">
                 Select
               </ToolButton>
               <ToolButton
                 active={tool === "draw"}
                 onClick={() => {
+                  setUnderlayMode(null);
                   setTool("draw");
                   setMode("drawing");
                   setSelection(null);
@@ -361,6 +400,20 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
             </div>
             <Button variant="secondary" size="sm" onClick={() => setQuickOpen(true)}>
               Quick shape…
+            </Button>
+            <Button
+              variant={underlayOpen ? "primary" : "secondary"}
+              size="sm"
+              aria-expanded={underlayOpen}
+              aria-controls="sketch-underlay-panel"
+              onClick={() => {
+                setMode("drawing");
+                setUnderlayOpen((o) => !o);
+                if (underlayOpen) setUnderlayMode(null);
+              }}
+              title="Trace over a plan drawing"
+            >
+              Underlay
             </Button>
             <Sep />
             <Button variant="ghost" size="sm" onClick={() => roofDraftStore.undo(jobId)} disabled={!canUndo} title="Undo (Ctrl+Z)">
@@ -447,6 +500,15 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
       {mode === "drawing" ? (
         <div className="grid items-start gap-3 lg:grid-cols-[minmax(0,1fr)_21rem]">
           <div ref={canvasBox} className="relative min-w-0 overflow-hidden rounded-lg border border-steel-200 bg-white shadow-panel">
+          {underlayMode && !readOnly && (
+            <div role="status" className="absolute left-2 right-12 top-2 rounded-md border border-accent-200 bg-accent-50/95 px-3 py-1.5 text-xs text-accent-900 shadow-sm">
+              {underlayMode === "move"
+                ? "Drag to move the plan underlay · Esc when done"
+                : scalePoints.length < 2
+                  ? `Setting the scale: click point ${scalePoints.length + 1} of 2 on the plan · Esc cancels`
+                  : "Type the real distance between the two points in the Underlay panel"}
+            </div>
+          )}
           {tool === "draw" && !readOnly && (
             <div className="absolute left-2 right-12 top-2 flex flex-wrap items-center gap-x-3 gap-y-1 rounded-md border border-accent-200 bg-accent-50/95 px-3 py-1.5 text-xs text-accent-900 shadow-sm">
               <span>
@@ -491,9 +553,33 @@ export function SketchEditor({ jobId, draft, readOnly, canReadRules }: { jobId: 
               refusedPlaneId={refusedPlaneId}
               readOnly={readOnly}
               summary={summary}
+              underlay={canvasUnderlay}
+              underlayMode={readOnly ? null : underlayMode}
+              scalePoints={scalePoints}
+              onUnderlayPoint={onUnderlayPoint}
+              onUnderlayMove={onUnderlayMove}
             />
           </div>
           <aside className="space-y-3" aria-label="Plane details and totals">
+            {underlayOpen && !readOnly && (
+              <div id="sketch-underlay-panel" className="rounded-lg border border-steel-200 bg-white p-3 shadow-panel">
+                <UnderlayPanel
+                  jobId={jobId}
+                  underlay={underlay}
+                  image={underlayImage}
+                  view={view}
+                  canvas={size}
+                  mode={underlayMode}
+                  onMode={setUnderlayMode}
+                  scalePoints={scalePoints}
+                  onClearScalePoints={() => setScalePoints([])}
+                  onClose={() => {
+                    setUnderlayOpen(false);
+                    setUnderlayMode(null);
+                  }}
+                />
+              </div>
+            )}
             <div className="rounded-lg border border-steel-200 bg-white p-3 shadow-panel">
               {validSelection && selectedPlane ? (
                 <PlaneInspector
