@@ -17,7 +17,7 @@
  * when it is not running, stopped again after) unless DATABASE_URL or DB_HOST names another server.
  */
 import autocannon from "autocannon";
-import type { AddressInfo } from "node:net";
+import { spawn } from "node:child_process";
 import { loadDotEnv } from "./lib/env";
 import { startLocalMariaDb, type LocalDb } from "./lib/mariadb";
 import { hasExternalDatabase, loadConfig } from "../server/config";
@@ -25,9 +25,6 @@ import { createSequelize } from "../server/db/sequelize";
 import { createMigrator } from "../server/db/migrator";
 import { Company, Customer, Job, Roof, User, initModels } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
-import { createSessionStore } from "../server/session-store";
-import { createApp } from "../server/app";
-import { createLogger } from "../server/logger";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
 import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
 import { gableRoof, hipRoof, lShapeGableRoof, shedRoof } from "../shared/engine/roof/generators";
@@ -234,18 +231,40 @@ async function main() {
   const saveTargets = pastLead.filter((j) => j.status === "estimating" && !roofedIds.has(j.id)).slice(0, CONNECTIONS).map((j) => j.id);
   console.log(`Seeded ${JOBS} jobs, ${CUSTOMERS} customers, ${roofed.length} roofs in ${((Date.now() - t0) / 1000).toFixed(1)} s.`);
 
-  // ---- the app, in this process -------------------------------------------------------------------------------
-  const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
-  const noMail = { send: async () => ({ messageId: "<bench@example.com>" }) };
-  const app = createApp({ config, logger: createLogger("silent"), sequelize, sessionStore, mailer: noMail });
-  const server = app.listen(0, "127.0.0.1");
-  await new Promise<void>((r) => server.once("listening", () => r()));
-  const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+  // ---- the app, in a process of its own (the load generator stays in this one) ---------------------------------
+  const child = spawn("node_modules/.bin/tsx", ["scripts/lib/serve-app.ts"], {
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      SESSION_SECRET: "bench-only-session-secret-0123456789",
+      DB_HOST: config.db.host,
+      DB_PORT: String(config.db.port),
+      DB_NAME: config.db.database,
+      DB_USER: config.db.user,
+      DB_PASSWORD: config.db.password,
+      DB_POOL_MAX: String(config.db.poolMax),
+      PORT: "0",
+      LOG_LEVEL: "error",
+      TRUST_PROXY: "1", // as behind a TLS-terminating proxy: the requests below say X-Forwarded-Proto: https
+    },
+    stdio: ["ignore", "pipe", "inherit"],
+  });
+  const port = await new Promise<number>((resolve, reject) => {
+    let out = "";
+    child.stdout!.on("data", (d: Buffer) => {
+      out += d.toString();
+      const m = /listening (\d+)/.exec(out);
+      if (m) resolve(Number(m[1]));
+    });
+    child.once("exit", (code) => reject(new Error(`the app exited with code ${code} before listening`)));
+  });
+  const url = `http://127.0.0.1:${port}`;
+  process.once("exit", () => child.kill("SIGTERM")); // never leave the app running if this script fails
 
   // Sign in (CSRF token, login, a fresh token for the new session).
   let cookie = "";
   const call = async (path: string, init: RequestInit = {}) => {
-    const res = await fetch(url + path, { ...init, headers: { "content-type": "application/json", cookie, ...(init.headers ?? {}) } });
+    const res = await fetch(url + path, { ...init, headers: { "content-type": "application/json", "x-forwarded-proto": "https", cookie, ...(init.headers ?? {}) } });
     const set = res.headers.getSetCookie?.() ?? [];
     if (set.length) cookie = set.map((c) => c.split(";")[0]).join("; ");
     return res;
@@ -254,7 +273,7 @@ async function main() {
   const login = await call("/api/auth/login", { method: "POST", headers: { "x-csrf-token": token1 }, body: JSON.stringify({ email: owner.email, password: PASSWORD }) });
   if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
   const token = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
-  const headers = { cookie, "x-csrf-token": token, "content-type": "application/json" };
+  const headers = { cookie, "x-csrf-token": token, "content-type": "application/json", "x-forwarded-proto": "https" };
 
   const listPath = "/api/jobs?page=3&pageSize=50&status=estimating&sort=-updatedAt";
   const searchPath = "/api/jobs?q=heron&pageSize=50";
@@ -319,11 +338,12 @@ async function main() {
   const verdict = (ok: boolean) => (ok ? "met" : "NOT met");
   console.log(`\nTarget list p95 < 50 ms: ${verdict(list.p95 < 50)} (filtered ${ms(list.p95)}, search ${ms(search.p95)}); roof save p95 < 100 ms: ${verdict(save.p95 < 100)} (${ms(save.p95)}).`);
 
-  // Let requests still in flight finish before the pool closes.
+  // Let requests still in flight finish, then stop the app.
   await new Promise((r) => setTimeout(r, 1500));
-  server.closeAllConnections();
-  await new Promise<void>((r) => server.close(() => r()));
-  sessionStore.stopExpiringSessions();
+  await new Promise<void>((r) => {
+    child.once("exit", () => r());
+    child.kill("SIGTERM");
+  });
   await sequelize.close();
   if (localDb?.started) await localDb.stop();
 }
