@@ -16,7 +16,7 @@ import { formatMoney } from "../../shared/schemas/proposal";
 import { conflict, HttpError } from "../errors";
 import type { Logger } from "../logger";
 import { emailLayout, escapeHtml } from "../mail/templates";
-import { Customer, Job, Payment, PaymentEvent, Proposal, Quote, QuoteOption } from "../models/index";
+import { Company, Customer, Job, Payment, PaymentEvent, Proposal, Quote, QuoteOption } from "../models/index";
 import type { PaymentConfig } from "../payments/config";
 import { createDepositCheckout } from "../payments/stripe-client";
 import { recordAudit } from "./audit.service";
@@ -172,17 +172,35 @@ export class PaymentsService {
     }
   }
 
-  /** The e-mail to the estimator when the deposit is paid (in the webhook's transaction). */
+  /** The receipt to the homeowner and the notice to the estimator when the deposit is paid (in the webhook's transaction). */
   private async paidNotice(p: Payment, t: Transaction) {
     const proposal = await Proposal.findByPk(p.proposalId, { transaction: t });
     const job = await Job.findByPk(p.jobId, { transaction: t });
     if (!proposal || !job) return;
+    const [quote, customer, company] = await Promise.all([
+      Quote.findByPk(proposal.quoteId, { attributes: ["number"], transaction: t }),
+      Customer.findByPk(job.customerId, { attributes: ["name", "email"], transaction: t }),
+      Company.findByPk(p.companyId, { attributes: ["name"], transaction: t }),
+    ]);
+    const homeowner = customer?.email ?? proposal.sentTo;
+    if (homeowner) {
+      const amount = formatMoney(num(p.amountCents));
+      const from = company?.name ?? "your roofing contractor";
+      const subject = `Receipt: deposit of ${amount} for proposal ${quote?.number ?? ""}`;
+      const text = [
+        `Thank you${customer?.name ? `, ${customer.name}` : ""}. ${from} received your deposit of ${amount} for proposal ${quote?.number ?? ""}.`,
+        "",
+        "Keep this e-mail as your receipt. Your contractor will be in touch to schedule the work.",
+      ].join("\n");
+      const html = emailLayout(
+        subject,
+        `<p>Thank you${customer?.name ? `, ${escapeHtml(customer.name)}` : ""}. ${escapeHtml(from)} received your deposit of <strong>${escapeHtml(amount)}</strong> for proposal ${escapeHtml(quote?.number ?? "")}.</p>
+<p>Keep this e-mail as your receipt. Your contractor will be in touch to schedule the work.</p>`,
+      );
+      await enqueueEmail({ to: homeowner, subject, text, html }, { transaction: t, companyId: p.companyId, kind: "deposit_receipt" });
+    }
     const to = await this.deps.proposals.estimatorEmail(job, proposal, t);
     if (!to) return;
-    const [quote, customer] = await Promise.all([
-      Quote.findByPk(proposal.quoteId, { attributes: ["number"], transaction: t }),
-      Customer.findByPk(job.customerId, { attributes: ["name"], transaction: t }),
-    ]);
     const subject = `Deposit paid: ${quote?.number ?? ""} by ${customer?.name ?? "the homeowner"}`;
     const amount = formatMoney(num(p.amountCents));
     const jobUrl = `${this.deps.publicUrl.replace(/\/+$/, "")}/jobs/${job.id}`;

@@ -122,6 +122,11 @@ describe("paying through the fake", () => {
     const mail = await OutboxMessage.findAll({ where: { kind: "deposit_paid" } });
     expect(mail).toHaveLength(1);
     expect(mail[0].toAddresses).toEqual([w.estimator.user.email]);
+    // The homeowner gets a receipt, as the return page promises.
+    const receipt = await OutboxMessage.findAll({ where: { kind: "deposit_receipt" } });
+    expect(receipt).toHaveLength(1);
+    expect(receipt[0].subject).toContain("Receipt: deposit of");
+    expect(receipt[0].toAddresses).not.toContain(w.estimator.user.email);
     expect(await AuditEvent.count({ where: { entityType: "payment", action: "paid" } })).toBe(1);
 
     const again = await homeowner(app).post(`/api/proposals/${w.token}/deposit`).send({});
