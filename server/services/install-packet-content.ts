@@ -8,7 +8,7 @@ import type { InstallArea, InstallPacketDocDto, InstallPlane, InstallStep, ZoneF
 import { planeRoofEdges, zoneKey, WIND_ZONES, type WindZone } from "../../shared/engine/wind/zones";
 import type { EdgePiece } from "../../shared/engine/roof/edges";
 import type { PlaneResult, TakeoffResult } from "../../shared/engine/types";
-import { addressLines, safetyCautions, spacerChoice, type ContentRoofInput } from "./proposal-content";
+import { addressLines, spacerChoice, type ContentRoofInput } from "./proposal-content";
 
 export interface InstallPacketInput {
   company: { name: string; phone?: string | null; licenceNumber?: string | null };
@@ -261,6 +261,37 @@ export function buildInstallPacketDoc(input: InstallPacketInput): InstallPacketD
     otherMaterials: t.materials.filter((m) => !trimCats.has(m.category) && m.category !== "panels").map(material),
     photoSlots: (input.photos ?? []).map((p) => ({ caption: p.caption, attachmentId: p.attachmentId ?? null })),
     advisories: t.advisories.filter((a) => a.severity !== "info").map((a) => ({ severity: a.severity, message: a.message, reference: a.reference })),
-    cautions: safetyCautions(maxPitch),
+    cautions: crewSafetyCautions(maxPitch),
+  };
+}
+
+/**
+ * The cautions as the crew needs them (the proposal's are written to the homeowner). Fall protection:
+ * OSHA 29 CFR 1926.501(b)(13) for residential construction at 6 ft or more, 1926.501(b)(11) on steep roofs
+ * (over 4 in 12, 1926.500(b)).
+ */
+export function crewSafetyCautions(maxPitch: number): InstallPacketDocDto["cautions"] {
+  const steep = maxPitch > 4;
+  return {
+    items: [
+      {
+        title: "Falls",
+        text: `${steep ? `Steep roof: up to ${Number(maxPitch.toFixed(1))}/12. ` : ""}Fall protection at 6 ft or more above a lower level, at any slope: guardrails, safety nets or personal fall arrest${steep ? " (on a roof over 4/12: guardrails with toeboards, nets or personal fall arrest)" : ""}, set up before anyone goes up. Keep the ground below the eaves clear.`,
+      },
+      {
+        title: "Power lines",
+        text: "Look up before raising ladders or carrying panels: keep ladders, panels and tools well clear of overhead lines, and stop work and call the office if a line is close to the roof.",
+      },
+      {
+        title: "Hot metal",
+        text: "Panels in the sun burn skin: gloves and long sleeves, water and shade breaks; work the sunny slopes early where you can.",
+      },
+      {
+        title: "Sharp edges",
+        text: "Cut edges, offcuts and screws are sharp: cut-resistant gloves and eye protection; collect offcuts and screws as you go.",
+      },
+    ],
+    governs:
+      "The panel maker's tested installation details and local codes govern over this packet. Where they ask for more (closer clips, other fasteners, extra underlayment), do what they ask and tell the office.",
   };
 }
