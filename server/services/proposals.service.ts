@@ -36,6 +36,7 @@ import { newStorageKey, type Storage } from "../storage/storage";
 import { recordAudit } from "./audit.service";
 import { JobsService } from "./jobs.service";
 import { enqueueEmail } from "./outbox.service";
+import { refreshJobQuoteTotal } from "./quotes.service";
 import { getPricingSettings } from "./pricing-settings";
 import { buildProposalDoc, type ContentOptionInput, type ContentRoofInput, type OptionSpec } from "./proposal-content";
 import type { FrozenPriceBook } from "./quote-pricing";
@@ -497,6 +498,7 @@ export class ProposalsService {
         );
         await rev.update({ status: "accepted", version: rev.version + 1, decidedAt: now }, { transaction: t });
         await quote.update({ status: "accepted" }, { transaction: t });
+        await refreshJobQuoteTotal(this.deps.sequelize, quote.jobId, t); // the board shows the accepted option's total
         await recordAudit(
           {
             companyId: quote.companyId,

@@ -635,15 +635,8 @@ export class QuotesService {
     await rev.save({ transaction: t });
   }
 
-  /** jobs.quote_total_cents ← the job's latest live quote's current total (null without one). */
   async refreshJobTotal(jobId: number, t: Transaction) {
-    const [rows] = await this.sequelize.query(
-      `SELECT r.total_cents AS total FROM quotes q JOIN quote_revisions r ON r.id = q.current_revision_id
-        WHERE q.job_id = ? AND q.archived_at IS NULL ORDER BY q.created_at DESC, q.id DESC LIMIT 1`,
-      { replacements: [jobId], transaction: t },
-    );
-    const total = (rows as Array<{ total: string | number }>)[0]?.total;
-    await Job.update({ quoteTotalCents: total === undefined ? null : Number(total) }, { where: { id: jobId }, transaction: t, silent: true });
+    await refreshJobQuoteTotal(this.sequelize, jobId, t);
   }
 
   private audit(actor: Actor, quote: Quote, action: string, changes: Record<string, unknown>, t: Transaction) {
@@ -657,4 +650,26 @@ export class QuotesService {
 /** A spec with its keys in one order and undefined left out, to compare two specs. */
 function sortKeys(spec: OptionSpec | null): Record<string, unknown> {
   return Object.fromEntries(Object.entries(spec ?? {}).filter(([, v]) => v !== undefined).sort(([a], [b]) => a.localeCompare(b)));
+}
+
+/**
+ * jobs.quote_total_cents ← the option the homeowner accepted, when a proposal of the job was accepted;
+ * else the job's latest live quote's current total; null without one.
+ */
+export async function refreshJobQuoteTotal(sequelize: Sequelize, jobId: number, t: Transaction): Promise<void> {
+  const [accepted] = await sequelize.query(
+    `SELECT o.total_cents AS total FROM proposals p JOIN quote_options o ON o.id = p.accepted_option_id
+      WHERE p.job_id = ? AND p.status = 'accepted' ORDER BY p.accepted_at DESC, p.id DESC LIMIT 1`,
+    { replacements: [jobId], transaction: t },
+  );
+  let total = (accepted as Array<{ total: string | number }>)[0]?.total;
+  if (total === undefined) {
+    const [rows] = await sequelize.query(
+      `SELECT r.total_cents AS total FROM quotes q JOIN quote_revisions r ON r.id = q.current_revision_id
+        WHERE q.job_id = ? AND q.archived_at IS NULL ORDER BY q.created_at DESC, q.id DESC LIMIT 1`,
+      { replacements: [jobId], transaction: t },
+    );
+    total = (rows as Array<{ total: string | number }>)[0]?.total;
+  }
+  await Job.update({ quoteTotalCents: total === undefined ? null : Number(total) }, { where: { id: jobId }, transaction: t, silent: true });
 }

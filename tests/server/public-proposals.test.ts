@@ -116,6 +116,9 @@ describe("POST /api/proposals/:token/accept", () => {
     expect((await Quote.findByPk(w.quoteId))!.status).toBe("accepted");
     expect((await QuoteRevision.findOne({ where: { quoteId: w.quoteId } }))!.status).toBe("accepted");
     expect((await Job.findByPk(w.job.id))!.status).toBe("won");
+    // The board's quote total is now the accepted option's (the second one here), not the first option's.
+    expect(Number((await Job.findByPk(w.job.id))!.quoteTotalCents)).toBe(option.totals.totalCents);
+    expect(option.totals.totalCents).not.toBe(w.quote.revision.options[0].totals.totalCents);
     expect(await AuditEvent.count({ where: { entityType: "quote", action: "accepted", actorId: null } })).toBe(1);
     expect(await AuditEvent.count({ where: { entityType: "job", action: "status_changed", jobId: w.job.id } })).toBe(2); // proposed, won
   });
