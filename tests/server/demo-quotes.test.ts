@@ -1,7 +1,7 @@
 import { beforeEach, describe, expect, it } from "vitest";
 import { seedDemo, DEMO_USERS, SECOND_COMPANY_USERS } from "../../server/db/seeders/demo";
 import { seedDemoQuotes } from "../../server/db/seeders/demo-quotes";
-import { Approval, Job, Quote, QuoteOption, QuoteRevision, User } from "../../server/models/index";
+import { Approval, Job, Payment, Proposal, Quote, QuoteOption, QuoteRevision, User } from "../../server/models/index";
 import { QUOTE_STATUSES, type QuoteStatus } from "../../shared/schemas/quote";
 import { testSequelize, truncateAll } from "../helpers/db";
 
@@ -73,6 +73,22 @@ describe("demo quotes", () => {
     // The approvals queue has an order: distinct submission times.
     const inReview = await QuoteRevision.findAll({ where: { companyId: owner.companyId, status: "in_review" } });
     expect(new Set(inReview.map((r) => r.submittedAt!.getTime())).size).toBe(inReview.length);
+
+    // Every quote the homeowner received has its proposal record, with the progress the board shows.
+    const received = await Quote.findAll({ where: { companyId: owner.companyId, status: ["sent", "accepted", "declined", "expired"] } });
+    const proposals = await Proposal.findAll({ where: { companyId: owner.companyId } });
+    expect(proposals.map((p) => p.quoteId).sort()).toEqual(received.map((q) => q.id).sort());
+    for (const p of proposals) {
+      const q = received.find((x) => x.id === p.quoteId)!;
+      expect(p.status).toBe(q.status === "sent" ? "active" : q.status);
+      expect(p.viewedAt).not.toBeNull();
+      if (p.status === "accepted") expect([p.acceptedAt, p.acceptedOptionId, p.signerName].every(Boolean)).toBe(true);
+    }
+    // Scheduled and installed jobs have their deposit paid.
+    const done = await Job.findAll({ where: { companyId: owner.companyId, status: ["scheduled", "installed"] } });
+    const paid = await Payment.findAll({ where: { companyId: owner.companyId, status: "paid" } });
+    expect(done.length).toBeGreaterThan(0);
+    for (const j of done) expect(paid.some((p) => p.jobId === j.id)).toBe(true);
   });
 
   it("is safe to call twice", async () => {

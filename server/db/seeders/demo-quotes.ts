@@ -10,13 +10,15 @@
  * - lost jobs: one declined, one expired.
  *
  * Quotes are made through the quotes service (takeoffs by the engine, prices from the company's price book,
- * approvals and audit rows as in the app). The proposal records of sent, accepted, declined and expired
- * quotes come with the proposals; here only the revision's status and times are set. Times are moved back
- * to sit before each job's last change, so the approvals queue has an order.
+ * approvals and audit rows as in the app). Sent, accepted, declined and expired quotes get the proposal
+ * record the homeowner's link would have made (sent, viewed, signed or declined times; a paid deposit on
+ * scheduled and installed jobs); their links are never usable: the token is thrown away, only a random hash
+ * is stored. Times are moved back to sit before each job's last change, so the approvals queue has an order.
  */
 import type { Sequelize, Transaction } from "sequelize";
 import type { OptionSpec, QuoteStatus } from "../../../shared/schemas/quote";
-import { Job, Quote, QuoteOption } from "../../models/index";
+import { randomBytes } from "node:crypto";
+import { Customer, Job, Payment, Proposal, Quote, QuoteOption } from "../../models/index";
 import { QuotesService } from "../../services/quotes.service";
 import type { DemoUser } from "./demo-jobs";
 
@@ -192,7 +194,59 @@ export async function seedDemoQuotes(sequelize: Sequelize, companyId: number, us
     await setStatus(q, "expired");
     await backdate(q, lostB, 24 * 35);
   }
-  // The board's quote total follows each job's latest live quote (after the times moved).
+  // ---- the homeowners' side: proposal records for what was sent --------------------------------------------
+  const DAY = 24 * HOUR;
+  const signers = ["accepted", "declined", "expired", "sent"] as const;
+  const sentQuotes = await Quote.findAll({ where: { companyId, status: [...signers] }, transaction: t });
+  for (const q of sentQuotes) {
+    const job = jobs.find((j) => j.id === q.jobId)!;
+    const customer = await Customer.findByPk(job.customerId, { transaction: t });
+    const options = await QuoteOption.findAll({ where: { revisionId: q.currentRevisionId! }, order: [["position", "ASC"]], transaction: t });
+    const sentAt = new Date(job.updatedAt.getTime() - 10 * DAY);
+    const chosen = options[options.length > 1 ? 1 : 0];
+    const status = q.status === "sent" ? "active" : (q.status as "accepted" | "declined" | "expired");
+    const proposal = await Proposal.create(
+      {
+        companyId,
+        quoteId: q.id,
+        revisionId: q.currentRevisionId!,
+        jobId: job.id,
+        tokenHash: randomBytes(32).toString("hex"), // no token exists for it: demo links cannot be opened
+        status,
+        expiresAt: new Date(sentAt.getTime() + (status === "expired" ? 30 : 60) * DAY),
+        sentTo: customer?.email ?? "homeowner@example.com",
+        sentBy: writer(job).id,
+        viewedAt: new Date(sentAt.getTime() + 5 * HOUR),
+        lastViewedAt: new Date(sentAt.getTime() + 26 * HOUR),
+        ...(status === "accepted"
+          ? { acceptedAt: new Date(sentAt.getTime() + 2 * DAY), acceptedOptionId: chosen.id, signerName: customer?.name ?? "Homeowner" }
+          : {}),
+        ...(status === "declined"
+          ? { declinedAt: new Date(sentAt.getTime() + 3 * DAY), declineReason: "We have decided to wait until next spring." }
+          : {}),
+      },
+      { transaction: t },
+    );
+    await sequelize.query("UPDATE proposals SET created_at = ?, updated_at = ? WHERE id = ?", {
+      replacements: [sentAt, sentAt, proposal.id],
+      transaction: t,
+    });
+    if (status === "accepted" && Number(chosen.depositCents) > 0 && job.status !== "won") {
+      await Payment.create(
+        {
+          companyId,
+          proposalId: proposal.id,
+          jobId: job.id,
+          amountCents: Number(chosen.depositCents),
+          status: "paid",
+          paidAt: new Date(sentAt.getTime() + 3 * DAY),
+        },
+        { transaction: t },
+      );
+    }
+  }
+
+  // The board's quote total follows each job's latest live quote or accepted option (after the times moved).
   for (const job of jobs) await svc.refreshJobTotal(job.id, t);
   return true;
 }
