@@ -16,6 +16,7 @@ import {
   PROPOSAL_STATUSES,
 } from "../../shared/schemas/proposal";
 import type { StackResult, TakeoffResult } from "../../shared/engine/types";
+import { applySpacerAndFoil } from "../../shared/engine/stack-options";
 
 // ---------------------------------------------------------------------------------------------------
 // input shapes
@@ -167,30 +168,7 @@ export const spacerChoice = (s: StackInput): SpacerChoice =>
  * swaps the whole stack). Battens keep the stack's batten settings; mats keep their thickness.
  */
 export function applyOptionSpec(stack: StackInput, spec: OptionSpec | null | undefined): StackInput {
-  let s = stack;
-  if (spec?.spacer) {
-    const sp = s.spacer;
-    const keep = (kind: "mesh" | "dimpled") => (sp.kind === kind ? { thicknessIn: sp.thicknessIn, openFraction: sp.openFraction } : {});
-    switch (spec.spacer) {
-      case "none":
-        s = { ...s, spacer: { ...sp, kind: "none" } };
-        break;
-      case "battens":
-        s = { ...s, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: false } } };
-        break;
-      case "counter-battens":
-        s = { ...s, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: true } } };
-        break;
-      case "mesh":
-      case "dimpled":
-        s = { ...s, spacer: { kind: spec.spacer, battens: sp.battens, ...keep(spec.spacer) } };
-        break;
-    }
-  }
-  if (spec?.foil !== undefined) {
-    s = { ...s, radiantBarrier: { ...s.radiantBarrier, kind: spec.foil ? "foil" : "none" } };
-  }
-  return s;
+  return applySpacerAndFoil(stack, spec ?? {});
 }
 
 const SPACER_PHRASE: Record<SpacerChoice, string> = {

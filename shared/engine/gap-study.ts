@@ -9,8 +9,9 @@ import type { Advisory } from "./advisory";
 import { computeTakeoffParsed, refusalFromZod } from "./takeoff";
 import type { MaterialLine } from "./materials";
 import type { TakeoffResult } from "./types";
+import { applySpacerAndFoil, SPACER_OPTIONS } from "./stack-options";
 
-export const GAP_STUDY_OPTIONS = ["none", "battens", "counter-battens", "mesh", "dimpled"] as const;
+export const GAP_STUDY_OPTIONS = SPACER_OPTIONS;
 export type GapStudyOption = (typeof GAP_STUDY_OPTIONS)[number];
 
 export interface GapStudySummary {
@@ -39,22 +40,7 @@ export type GapStudyOutcome =
   | { ok: true; options: GapStudyOptionResult[] }
   | { ok: false; reason: string; path: (string | number)[]; fields?: Record<string, string> };
 
-function withSpacer(stack: StackInput, option: GapStudyOption): StackInput {
-  const sp = stack.spacer;
-  const keepThickness = (kind: "mesh" | "dimpled") => (sp.kind === kind ? { thicknessIn: sp.thicknessIn, openFraction: sp.openFraction } : {});
-  switch (option) {
-    case "none":
-      return { ...stack, spacer: { ...sp, kind: "none" } };
-    case "battens":
-      return { ...stack, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: false } } };
-    case "counter-battens":
-      return { ...stack, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: true } } };
-    case "mesh":
-      return { ...stack, spacer: { kind: "mesh", battens: sp.battens, ...keepThickness("mesh") } };
-    case "dimpled":
-      return { ...stack, spacer: { kind: "dimpled", battens: sp.battens, ...keepThickness("dimpled") } };
-  }
-}
+const withSpacer = (stack: StackInput, option: GapStudyOption): StackInput => applySpacerAndFoil(stack, { spacer: option });
 
 const SPACER_KEYS = /^(spacer-|batten-|counter-batten-|screw-batten$)/;
 

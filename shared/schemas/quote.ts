@@ -16,6 +16,7 @@
  * - GET  /api/approvals                                       → { data: ApprovalQueueItem[] } (owner)
  */
 import { z } from "zod";
+import { applySpacerAndFoil } from "../engine/stack-options";
 import type { StackInput } from "./takeoff";
 
 export const QUOTE_STATUSES = ["draft", "in_review", "approved", "sent", "accepted", "declined", "expired"] as const;
@@ -178,30 +179,7 @@ export type QuoteListQuery = z.output<typeof quoteListQuerySchema>;
 
 /** The stack with the option's spacer (as the gap study swaps it) and foil applied. */
 export function applySpecToStack(stack: StackInput, spec: OptionSpec): StackInput {
-  let s = stack;
-  if (spec.spacer) {
-    const sp = s.spacer;
-    const keep = (kind: "mesh" | "dimpled") => (sp.kind === kind ? { thicknessIn: sp.thicknessIn, openFraction: sp.openFraction } : {});
-    switch (spec.spacer) {
-      case "none":
-        s = { ...s, spacer: { ...sp, kind: "none" } };
-        break;
-      case "battens":
-        s = { ...s, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: false } } };
-        break;
-      case "counter-battens":
-        s = { ...s, spacer: { kind: "battens", battens: { ...sp.battens, counterBattens: true } } };
-        break;
-      case "mesh":
-        s = { ...s, spacer: { kind: "mesh", battens: sp.battens, ...keep("mesh") } };
-        break;
-      case "dimpled":
-        s = { ...s, spacer: { kind: "dimpled", battens: sp.battens, ...keep("dimpled") } };
-        break;
-    }
-  }
-  if (spec.foil !== undefined) s = { ...s, radiantBarrier: { ...s.radiantBarrier, kind: spec.foil ? "foil" : "none" } };
-  return s;
+  return applySpacerAndFoil(stack, spec);
 }
 
 /**
