@@ -24,6 +24,7 @@ import {
   numberOrUndefined,
   type SiteFormValues,
 } from "@/features/jobs/components/site-data-fields";
+import { SiteAddressFields } from "@/features/jobs/components/site-address-fields";
 
 type Mode = "existing" | "new";
 type Picked = Pick<CustomerDto, "id" | "name"> & Partial<CustomerDto>;
@@ -196,23 +197,7 @@ export function NewJobForm({ me, onSubmit, onCancel }: Props) {
             </h3>
             <p className="text-xs text-steel-500">Leave it blank when the roof is at the customer's own address.</p>
           </div>
-          <div className="grid grid-cols-6 gap-x-3 gap-y-2.5">
-            <Field label="Street address" error={errors.siteAddressLine1?.message} className="col-span-6 sm:col-span-4">
-              <Input autoComplete="off" {...register("siteAddressLine1")} />
-            </Field>
-            <Field label="Apt, unit (optional)" error={errors.siteAddressLine2?.message} className="col-span-6 sm:col-span-2">
-              <Input autoComplete="off" {...register("siteAddressLine2")} />
-            </Field>
-            <Field label="City" error={errors.siteCity?.message} className="col-span-6 sm:col-span-3">
-              <Input autoComplete="off" {...register("siteCity")} />
-            </Field>
-            <Field label="State" error={errors.siteRegion?.message} className="col-span-3 sm:col-span-1">
-              <Input autoComplete="off" {...register("siteRegion")} />
-            </Field>
-            <Field label="ZIP" error={errors.sitePostalCode?.message} className="col-span-3 sm:col-span-2">
-              <Input autoComplete="off" inputMode="numeric" {...register("sitePostalCode")} />
-            </Field>
-          </div>
+          <SiteAddressFields />
         </section>
 
         <div className="grid grid-cols-6 gap-x-3 gap-y-2.5">

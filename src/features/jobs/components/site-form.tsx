@@ -10,6 +10,7 @@ import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { Textarea } from "@/components/ui/textarea";
 import { SITE_FIELD_PATHS, SiteDataFields } from "@/features/jobs/components/site-data-fields";
+import { SiteAddressFields } from "@/features/jobs/components/site-address-fields";
 
 type FormValues = z.input<typeof jobUpdateSchema>;
 
@@ -94,23 +95,7 @@ export function SiteForm({ job, disabled, onSave }: Props) {
 
           <fieldset className="min-w-0">
             <legend className="mb-2 text-xs font-semibold uppercase tracking-wide text-steel-500">Address</legend>
-            <div className="grid grid-cols-6 gap-x-3 gap-y-2.5">
-              <Field label="Street address" error={errors.siteAddressLine1?.message} className="col-span-6 sm:col-span-4">
-                <Input autoComplete="off" {...register("siteAddressLine1")} />
-              </Field>
-              <Field label="Apt, unit (optional)" error={errors.siteAddressLine2?.message} className="col-span-6 sm:col-span-2">
-                <Input autoComplete="off" {...register("siteAddressLine2")} />
-              </Field>
-              <Field label="City" error={errors.siteCity?.message} className="col-span-6 sm:col-span-3">
-                <Input autoComplete="off" {...register("siteCity")} />
-              </Field>
-              <Field label="State" error={errors.siteRegion?.message} className="col-span-3 sm:col-span-1">
-                <Input autoComplete="off" {...register("siteRegion")} />
-              </Field>
-              <Field label="ZIP" error={errors.sitePostalCode?.message} className="col-span-3 sm:col-span-2">
-                <Input autoComplete="off" inputMode="numeric" {...register("sitePostalCode")} />
-              </Field>
-            </div>
+            <SiteAddressFields />
           </fieldset>
 
           <div className="border-t border-steel-100 pt-4">
