@@ -8,7 +8,7 @@ import type { Config } from "./config";
 import type { Logger } from "./logger";
 import type { Mailer } from "./mail/mailer";
 import type { MailCatcher } from "./mail/catcher";
-import { createPassport } from "./auth/passport";
+import { createPassport, type UserPrefetch } from "./auth/passport";
 import { csrfProtection } from "./middleware/csrf";
 import { errorHandler } from "./middleware/error-handler";
 import { notFoundHandler } from "./middleware/not-found";
@@ -49,7 +49,8 @@ export const SESSION_COOKIE = "rw.sid";
 /** Builds the Express app; never listens (server/index.ts does). */
 export function createApp(deps: AppDeps): Express {
   const { config, logger } = deps;
-  const passport = createPassport();
+  const store = deps.sessionStore as Partial<UserPrefetch>;
+  const passport = createPassport(typeof store.takeUser === "function" ? (store as UserPrefetch) : undefined);
   const ctx: AppContext = {
     ...deps,
     storage: deps.storage ?? createDiskStorage(config.uploads.storageDir),

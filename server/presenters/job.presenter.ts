@@ -1,6 +1,7 @@
 import { canSeePricing, type Role } from "../../shared/auth/roles";
 import type { JobDto, JobListItem } from "../../shared/schemas/job";
 import type { Job, User } from "../models/index";
+import type { JobListRow } from "../services/jobs.service";
 
 const iso = (d: Date | null | undefined) => (d ? d.toISOString() : null);
 const num = (v: string | number | bigint | null | undefined) => (v === null || v === undefined ? null : Number(v));
@@ -42,24 +43,24 @@ export function presentJob(job: Job, role: Role): JobDto {
   return withPrices(dto, job, role);
 }
 
-/** A row of the jobs board (customer and estimator loaded). */
-export function presentJobListItem(job: Job, role: Role): JobListItem {
+/** A row of the jobs board (JobsService.list). */
+export function presentJobListItem(job: JobListRow, role: Role): JobListItem {
   const dto = {
     id: job.id,
     status: job.status,
     customerId: job.customerId,
-    customer: { id: job.customerId, name: job.customer?.name ?? "" },
+    customer: { id: job.customerId, name: job.customerName },
     siteAddressLine1: job.siteAddressLine1,
     siteCity: job.siteCity,
     estimatorId: job.estimatorId,
-    estimator: person(job.estimator),
-    squares: num(job.squares),
-    proposal: job.proposalProgress ?? null,
+    estimator: job.estimatorId !== null && job.estimatorName !== null ? { id: job.estimatorId, name: job.estimatorName } : null,
+    squares: job.squares,
+    proposal: job.proposalProgress,
     archivedAt: iso(job.archivedAt),
     createdAt: job.createdAt.toISOString(),
     updatedAt: job.updatedAt.toISOString(),
   };
-  return withPrices(dto, job, role);
+  return canSeePricing(role) ? { ...dto, quoteTotalCents: job.quoteTotalCents } : dto;
 }
 
 export { json as parseJsonColumn };

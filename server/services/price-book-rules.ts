@@ -12,7 +12,7 @@
  * one underlayment waste), the first item in material-key order wins and the others are reported as
  * conflicts by `rulesFromItems` (shown on GET /api/price-book/mapping).
  */
-import type { Transaction } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import { MATERIAL_KEYS, type MaterialKey } from "../../shared/engine/materials";
 import type { PriceBook, PriceBookItem, PitchBand, PricingSettings } from "../../shared/pricing/price-quote";
 import type { CatalogItemAttributes } from "../../shared/schemas/price-book";
@@ -176,20 +176,46 @@ async function activeMappedItems(companyId: number, transaction?: Transaction) {
   return rows.filter((r) => r.materialKey !== null);
 }
 
-const toSource = (r: CatalogItem): RuleSourceItem => ({
-  id: r.id,
-  sku: r.sku,
-  materialKey: r.materialKey,
-  purchaseUnit: r.purchaseUnit,
-  coverageUnit: r.coverageUnit,
-  packCoverage: r.packCoverage,
-  wastePct: r.wastePct,
-  attributes: r.attributes ?? {},
-});
+
+/**
+ * The active mapped items as rule sources, read with one plain query: every roof save and every preview
+ * takeoff reads them, so only the columns the rules use are read and no model objects are built.
+ */
+async function ruleSourceItems(companyId: number, transaction?: Transaction): Promise<RuleSourceItem[]> {
+  const sequelize = CatalogItem.sequelize!;
+  const rows = await sequelize.query<{
+    id: number;
+    sku: string;
+    materialKey: string;
+    purchaseUnit: string;
+    coverageUnit: string;
+    packCoverage: string | number;
+    wastePct: string | number | null;
+    attributes: unknown;
+  }>(
+    `SELECT id, sku, material_key AS materialKey, purchase_unit AS purchaseUnit, coverage_unit AS coverageUnit,
+            pack_coverage AS packCoverage, waste_pct AS wastePct, attributes
+       FROM catalog_items
+      WHERE company_id = ? AND active = 1 AND material_key IS NOT NULL
+      ORDER BY id`,
+    { replacements: [companyId], type: QueryTypes.SELECT, raw: true, transaction },
+  );
+  return rows.map((r) => ({
+    id: Number(r.id),
+    sku: r.sku,
+    materialKey: r.materialKey,
+    purchaseUnit: r.purchaseUnit,
+    coverageUnit: r.coverageUnit,
+    packCoverage: Number(r.packCoverage),
+    wastePct: r.wastePct === null ? null : Number(r.wastePct),
+    // The mariadb driver may hand JSON back as text.
+    attributes: (typeof r.attributes === "string" ? JSON.parse(r.attributes) : (r.attributes ?? {})) as CatalogItemAttributes,
+  }));
+}
 
 /** The full build (rules, where each value came from, conflicts), for the mapping page. */
 export async function rulesBuildForCompany(companyId: number, transaction?: Transaction): Promise<RulesBuild> {
-  return rulesFromItems((await activeMappedItems(companyId, transaction)).map(toSource));
+  return rulesFromItems(await ruleSourceItems(companyId, transaction));
 }
 
 /** The engine's `rules` input from the company's price book (fields the price book does not know are left to the engine). */

@@ -1,4 +1,4 @@
-import { UniqueConstraintError, type Sequelize, type Transaction } from "sequelize";
+import { UniqueConstraintError, literal, type Sequelize, type Transaction } from "sequelize";
 import type { RoofDocument, RoofDto, RoofSave } from "../../shared/schemas/roof";
 import { Roof } from "../models/index";
 import { conflict } from "../errors";
@@ -60,12 +60,19 @@ export class RoofsService {
     // Locks the job row: saves of one roof (and site edits) run one after another.
     const job = await this.jobs.get(jobId, actor, transaction);
     if (job.archivedAt) throw conflict("archived", "This job is archived; restore it to make changes");
-    const existing = await Roof.findOne({ where: { jobId }, transaction });
+    // Only the version, and the stored underlay when the save leaves it out (never the whole document and
+    // takeoff, which are large and about to be replaced).
+    const existing = await Roof.findOne({
+      where: { jobId },
+      attributes: ["id", "version", ...(input.underlay === undefined ? [[literal("JSON_EXTRACT(document, '$.underlay')"), "storedUnderlay"] as [ReturnType<typeof literal>, string]] : [])],
+      transaction,
+    });
     const currentVersion = existing?.version ?? 0;
     if (input.version !== currentVersion) throw stale(currentVersion);
 
-    const stored = existing ? parseJsonColumn<RoofDocument>(existing.document) : null;
-    const underlay = input.underlay === undefined ? stored?.underlay : (input.underlay ?? undefined);
+    const storedUnderlay = existing?.get("storedUnderlay" as "id") as unknown;
+    const kept = storedUnderlay === null || storedUnderlay === undefined ? undefined : parseJsonColumn<RoofDocument["underlay"]>(storedUnderlay);
+    const underlay = input.underlay === undefined ? (kept ?? undefined) : (input.underlay ?? undefined);
     const document: RoofDocument = {
       planes: input.planes,
       stacks: input.stacks,

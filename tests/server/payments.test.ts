@@ -119,6 +119,9 @@ describe("paying through the fake", () => {
     expect(after.body.data.deposit).toEqual({ status: "paid", amountCents: w.option.totals.depositCents });
     const job = await w.estimator.agent.get(`/api/jobs/${w.job.id}`);
     expect(job.body.data.proposal.depositStatus).toBe("paid");
+    // The board's row says the same as the job (the list reads it in its own query).
+    const board = await w.estimator.agent.get(`/api/jobs`);
+    expect(board.body.data.find((j: { id: number }) => j.id === w.job.id).proposal).toEqual(job.body.data.proposal);
     const mail = await OutboxMessage.findAll({ where: { kind: "deposit_paid" } });
     expect(mail).toHaveLength(1);
     expect(mail[0].toAddresses).toEqual([w.estimator.user.email]);

@@ -211,6 +211,7 @@ describe("GET /api/jobs/:id/proposals and the job's progress", () => {
     const board = await w.estimator.agent.get(`/api/jobs`);
     const row = board.body.data.find((j: { id: number }) => j.id === w.job.id);
     expect(row.proposal).toMatchObject({ status: "active", sentAt: expect.any(String) });
+    expect(row.proposal).toEqual(detail.body.data.proposal);
 
     expect((await w.crew.agent.get(`/api/jobs/${w.job.id}/proposals`)).status).toBe(404);
     const other = await signedInAgent({ role: "owner", companyId: (await buildCompany()).id }, w.app);
