@@ -60,6 +60,9 @@ export function createApp(deps: AppDeps): Express {
 
   const app = express();
   app.disable("x-powered-by");
+  // API answers are private and never reused (no-store below), so hashing every JSON body for an ETag is
+  // work for nothing; static files keep their own ETags (express.static, sendFile).
+  app.set("etag", false);
   if (config.trustProxy) app.set("trust proxy", 1);
   app.use(
     helmet({
@@ -79,6 +82,13 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   );
+
+  // Signed-in data (customers, prices) must not sit in browser or proxy caches; a route that serves a
+  // cacheable file sets its own Cache-Control.
+  app.use("/api", (_req, res, next) => {
+    res.set("Cache-Control", "no-store");
+    next();
+  });
 
   // No session needed: health answers even when the session store cannot.
   app.use("/api/health", healthRouter(deps.sequelize));

@@ -80,6 +80,14 @@ describe("API errors", () => {
     expect(cookie).not.toMatch(/Secure/i); // development/test over plain http
   });
 
+  it("keeps signed-in answers out of caches: Cache-Control no-store and no ETag", async () => {
+    const { agent } = await signedInAgent({ role: "owner" });
+    const res = await agent.get("/api/jobs");
+    expect(res.status).toBe(200);
+    expect(res.headers["cache-control"]).toBe("no-store"); // RFC 9111 5.2.2.5: never stored
+    expect(res.headers.etag).toBeUndefined();
+  });
+
   it("marks the cookie Secure in production", async () => {
     const app = createTestApp({ env: "production", trustProxy: true });
     const res = await request(app).get("/api/auth/csrf").set("X-Forwarded-Proto", "https");
