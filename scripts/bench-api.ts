@@ -11,6 +11,7 @@
  *   - PUT /api/jobs/:id/roof, a 12-plane roof with its takeoff (each connection saves its own job and sends
  *     the version the last save returned, so no save is refused as stale)
  * and prints p50/p95/p99 latency, requests per second, errors and the ratio to health.
+ * WORKERS=2 runs the app as two processes behind one port (node:cluster), one per core.
  * Targets: list p95 < 50 ms, roof save p95 < 100 ms.
  *
  * Database: like `npm start` (the local MariaDB in DB_DIR, default .data/mariadb on DB_PORT 3307; started
@@ -286,7 +287,8 @@ async function main() {
   }
 
   // ---- measure --------------------------------------------------------------------------------------------------
-  console.log(`\nautocannon: ${CONNECTIONS} connections, ${DURATION_S} s per endpoint…`);
+  const workers = Math.max(1, Math.trunc(Number(process.env.WORKERS ?? 1)) || 1);
+  console.log(`\nautocannon: ${CONNECTIONS} connections, ${DURATION_S} s per endpoint; the app in ${workers} process${workers > 1 ? "es (WORKERS)" : " (WORKERS=1)"}…`);
   // BENCH_ONLY=list,search,save,me: measure only those (health is always measured: the ratios need it).
   const only = new Set((process.env.BENCH_ONLY ?? "me,list,search,save").split(",").map((x) => x.trim()));
   const results: Measured[] = [];
