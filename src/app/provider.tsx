@@ -4,7 +4,7 @@ import { RouterProvider } from "react-router-dom";
 import { errorMessage } from "@/lib/api-client";
 import { createQueryClient } from "@/lib/query-client";
 import { Toaster, toast } from "@/components/ui/toast";
-import { authKeys } from "@/features/auth/api/queries";
+import { authKeys } from "@/lib/auth";
 import { createAppRouter } from "@/app/router";
 
 /** One query client for the app: a 401 anywhere forgets the user; failed mutations no form handles become toasts. */

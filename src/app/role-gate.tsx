@@ -2,7 +2,7 @@ import { Outlet } from "react-router-dom";
 import { canOpen, type Screen } from "@/config/paths";
 import { ROLE_LABELS } from "@/config/roles";
 import { NoAccess } from "@/components/layout/no-access";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 
 /** Renders the screen below it only for roles that may open it; others get the no-access panel. */
 export function RoleGate({ screen, name }: { screen: Screen; name: string }) {

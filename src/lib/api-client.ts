@@ -155,6 +155,17 @@ export async function api<T>(path: string, options: ApiOptions = {}): Promise<T>
   return (text ? JSON.parse(text) : undefined) as T;
 }
 
+/** `?a=1&b=x` from the defined, non-empty values (in a fixed order, so the URL is stable). */
+export function toSearch(params: Record<string, string | number | boolean | undefined | null>): string {
+  const s = new URLSearchParams();
+  for (const [k, v] of Object.entries(params)) {
+    if (v === undefined || v === null || v === "") continue;
+    s.set(k, String(v));
+  }
+  const out = s.toString();
+  return out ? `?${out}` : "";
+}
+
 /** A message fit for a toast or a form banner. */
 export function errorMessage(err: unknown): string {
   if (err instanceof ApiError) return err.message;

@@ -6,7 +6,7 @@ import { MemoryRouter } from "react-router-dom";
 import type { AttachmentDto } from "@shared/schemas/attachment";
 import { resetCsrfToken } from "@/lib/api-client";
 import { roofDraftStore } from "@/features/roof/api/roof-draft";
-import { FilesSection } from "@/features/uploads/components/files-section";
+import { JobFilesSection } from "@/app/routes/jobs/job-files";
 import { json, stubApi } from "./fetch-stub";
 
 const JOB_ID = 7;
@@ -83,7 +83,7 @@ function renderSection() {
   render(
     <QueryClientProvider client={qc}>
       <MemoryRouter>
-        <FilesSection jobId={JOB_ID} />
+        <JobFilesSection jobId={JOB_ID} />
       </MemoryRouter>
     </QueryClientProvider>,
   );

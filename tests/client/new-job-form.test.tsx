@@ -6,6 +6,8 @@ import type { UserDto } from "@shared/schemas/auth";
 import { resetCsrfToken } from "@/lib/api-client";
 import { makeAppQueryClient } from "@/app/provider";
 import { useCreateJob } from "@/features/jobs/api/mutations";
+import { CustomerFields } from "@/features/customers/components/customer-fields";
+import { CustomerPicker } from "@/features/customers/components/customer-picker";
 import { NewJobForm } from "@/features/jobs/components/new-job-form";
 import { json, stubApi } from "./fetch-stub";
 import { customer, estimator, jobDetail, owner, page, team } from "./jobs-fixtures";
@@ -19,6 +21,7 @@ function renderForm(me: UserDto = estimator) {
     return (
       <NewJobForm
         me={me}
+        customerInputs={{ Picker: CustomerPicker, Fields: CustomerFields }}
         onCancel={() => undefined}
         onSubmit={async (values) => created(await create.mutateAsync(values))}
       />

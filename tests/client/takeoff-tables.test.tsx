@@ -7,7 +7,7 @@ import { computeTakeoff } from "@shared/engine/takeoff";
 import type { TakeoffResult } from "@shared/engine/types";
 import { resetCsrfToken } from "@/lib/api-client";
 import { roofDraftStore } from "@/features/roof/api/roof-draft";
-import { TakeoffSection } from "@/features/takeoff/components/takeoff-section";
+import { JobTakeoffSection } from "@/app/routes/jobs/job-takeoff";
 import { csvField, cutListCsv, takeoffCsv } from "@/features/takeoff/csv";
 import { json, stubApi } from "./fetch-stub";
 import { demoRoof, job, JOB_ID } from "./stack-fixtures";
@@ -25,7 +25,7 @@ function renderSection() {
   render(
     <QueryClientProvider client={qc}>
       <MemoryRouter>
-        <TakeoffSection jobId={JOB_ID} />
+        <JobTakeoffSection jobId={JOB_ID} />
       </MemoryRouter>
     </QueryClientProvider>,
   );

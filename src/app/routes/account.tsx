@@ -1,7 +1,7 @@
 import { ROLE_DESCRIPTIONS, ROLE_LABELS } from "@/config/roles";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { PageHeader } from "@/components/layout/page-header";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { useChangePassword } from "@/features/auth/api/mutations";
 import { ChangePasswordForm } from "@/features/auth/components/change-password-form";
 

@@ -4,7 +4,7 @@ import { AppShell } from "@/components/layout/app-shell";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { FullPageSpinner } from "@/components/ui/spinner";
 import { paths, signInPath } from "@/config/paths";
-import { authQueries, useMe } from "@/features/auth/api/queries";
+import { authQueries, useMe } from "@/lib/auth";
 import { useLogout } from "@/features/auth/api/mutations";
 
 /** Runs before any signed-in screen: no session → the sign-in page, with `next` back here. */

@@ -1,8 +1,8 @@
 import { useParams } from "react-router-dom";
 import { PageHeader } from "@/components/layout/page-header";
 import { NotFoundRoute } from "@/app/routes/not-found";
-import { ApprovalsQueue } from "@/features/approvals/components/approvals-queue";
-import { ApprovalReview } from "@/features/approvals/components/approval-review";
+import { ApprovalsQueue } from "@/features/quotes/components/approvals-queue";
+import { ApprovalReview } from "@/features/quotes/components/approval-review";
 
 /** The owner's review queue. */
 export function ApprovalsRoute() {

@@ -3,7 +3,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Spinner } from "@/components/ui/spinner";
 import { PageHeader } from "@/components/layout/page-header";
-import { useCompany } from "@/features/company/api/queries";
+import { useCompany } from "@/lib/queries/company";
 import { CompanyProfileForm } from "@/features/company/components/company-profile-form";
 
 /** The owner's company profile: what proposals print about the business. */

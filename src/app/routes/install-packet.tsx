@@ -4,7 +4,7 @@ import { Button } from "@/components/ui/button";
 import { Spinner } from "@/components/ui/spinner";
 import { NotFoundRoute } from "@/app/routes/not-found";
 import { paths } from "@/config/paths";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { installPacketPdfUrl, useInstallPacket } from "@/features/install-packet/api/queries";
 import { InstallPacketView } from "@/features/install-packet/components/install-packet-view";
 import { ApiError, errorMessage } from "@/lib/api-client";

@@ -1,4 +1,4 @@
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { PriceBookScreen } from "@/features/price-book/components/price-book-screen";
 
 /** The company price book. Owners edit it; estimators read it (crew are stopped by the role gate). */

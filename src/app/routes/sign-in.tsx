@@ -4,7 +4,7 @@ import { useQueryClient, type QueryClient } from "@tanstack/react-query";
 import { Alert } from "@/components/ui/alert";
 import { LogoMark } from "@/components/layout/logo-mark";
 import { paths, safeNext } from "@/config/paths";
-import { authKeys, fetchMe } from "@/features/auth/api/queries";
+import { authKeys, fetchMe } from "@/lib/auth";
 import { useLogin } from "@/features/auth/api/mutations";
 import { SignInForm } from "@/features/auth/components/sign-in-form";
 

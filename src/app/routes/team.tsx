@@ -2,8 +2,8 @@ import type { LoaderFunctionArgs } from "react-router-dom";
 import type { QueryClient } from "@tanstack/react-query";
 import { canOpen } from "@/config/paths";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
-import { authQueries, useMe } from "@/features/auth/api/queries";
-import { userQueries } from "@/features/users/api/queries";
+import { authQueries, useMe } from "@/lib/auth";
+import { userQueries } from "@/lib/queries/users";
 import { TeamManager } from "@/features/users/components/team-manager";
 
 /** Starts loading the team list while the screen's code loads (owners only; the list is owner-only). */

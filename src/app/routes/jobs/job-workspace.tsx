@@ -4,13 +4,13 @@ import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { Spinner } from "@/components/ui/spinner";
 import { NotFoundRoute } from "@/app/routes/not-found";
 import { CREW_SECTIONS, JOB_SECTIONS, paths, type JobSection } from "@/config/paths";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { cn } from "@/lib/cn";
 import { canSeePricing } from "@shared/auth/roles";
 import { ApiError, errorMessage } from "@/lib/api-client";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
-import { useJob } from "@/features/jobs/api/queries";
+import { useJob } from "@/lib/queries/jobs";
 import { JobHeader, JobHeaderSkeleton } from "@/features/jobs/components/job-header";
 
 type SectionComponent = ComponentType<{ jobId: number }>;
@@ -22,10 +22,10 @@ const SECTIONS: Record<JobSection, SectionComponent> = {
   "roof-sketch": section(() => import("@/features/roof/components/roof-sketch-section").then((m) => m.RoofSketchSection)),
   "layer-stack": section(() => import("@/features/roof/components/layer-stack-section").then((m) => m.LayerStackSection)),
   "gap-study": section(() => import("@/features/roof/components/gap-study-section").then((m) => m.GapStudySection)),
-  takeoff: section(() => import("@/features/takeoff/components/takeoff-section").then((m) => m.TakeoffSection)),
+  takeoff: section(() => import("@/app/routes/jobs/job-takeoff").then((m) => m.JobTakeoffSection)),
   pricing: section(() => import("@/features/quotes/components/pricing-section").then((m) => m.PricingSection)),
   proposal: section(() => import("@/features/proposals/components/proposal-section").then((m) => m.ProposalSection)),
-  files: section(() => import("@/features/uploads/components/files-section").then((m) => m.FilesSection)),
+  files: section(() => import("@/app/routes/jobs/job-files").then((m) => m.JobFilesSection)),
   log: section(() => import("@/features/jobs/components/job-log-section").then((m) => m.JobLogSection)),
 };
 

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { ChangePasswordInput, LoginInput, UserDto } from "@shared/schemas/auth";
 import { api } from "@/lib/api-client";
-import { authKeys } from "@/features/auth/api/queries";
+import { authKeys } from "@/lib/auth";
 
 export const login = (input: LoginInput) =>
   api<{ user: UserDto }>("/auth/login", { method: "POST", json: input }).then((r) => r.user);

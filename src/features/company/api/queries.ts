@@ -1,22 +1,8 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
+import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { CompanyDto, CompanyProfileInput } from "@shared/schemas/price-book";
 import { api } from "@/lib/api-client";
+import { companyKeys } from "@/lib/queries/company";
 import { uploadFiles } from "@/lib/upload";
-
-export const companyKeys = {
-  all: ["company"] as const,
-  detail: () => [...companyKeys.all, "detail"] as const,
-};
-
-export const companyQueries = {
-  detail: () =>
-    queryOptions({
-      queryKey: companyKeys.detail(),
-      queryFn: ({ signal }) => api<{ data: CompanyDto }>("/company", { signal }).then((r) => r.data),
-    }),
-};
-
-export const useCompany = () => useQuery(companyQueries.detail());
 
 export function useSaveCompany() {
   const qc = useQueryClient();

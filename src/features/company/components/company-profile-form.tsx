@@ -17,7 +17,7 @@ import { Textarea } from "@/components/ui/textarea";
 import { toast } from "@/components/ui/toast";
 import { useSaveCompany } from "@/features/company/api/queries";
 import { LogoField } from "@/features/company/components/logo-field";
-import { parseNumber } from "@/features/price-book/lib/money";
+import { parseNumber } from "@/lib/money";
 
 type Values = {
   name: string;

@@ -1,8 +1,8 @@
 import { useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import type { CustomerDto, CustomerFormValues } from "@shared/schemas/customer";
 import { api } from "@/lib/api-client";
-import { customerKeys } from "@/features/customers/api/queries";
-import { jobKeys } from "@/features/jobs/api/queries";
+import { customerKeys } from "@/lib/queries/customers";
+import { jobKeys } from "@/lib/queries/jobs";
 
 /** A customer's name shows on the jobs board and in each job's header, so those refetch too. */
 function afterCustomerChange(qc: QueryClient, customer: CustomerDto) {

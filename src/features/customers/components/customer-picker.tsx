@@ -6,7 +6,7 @@ import { useFieldControl } from "@/components/ui/field";
 import { controlClass } from "@/components/ui/input";
 import { Button } from "@/components/ui/button";
 import { Spinner } from "@/components/ui/spinner";
-import { useCustomers } from "@/features/customers/api/queries";
+import { useCustomers } from "@/lib/queries/customers";
 
 type Picked = Pick<CustomerDto, "id" | "name"> & Partial<CustomerDto>;
 

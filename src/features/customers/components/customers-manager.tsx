@@ -10,7 +10,7 @@ import { Pager } from "@/components/ui/pager";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
-import { useCustomers } from "@/features/customers/api/queries";
+import { useCustomers } from "@/lib/queries/customers";
 import { useCreateCustomer, useSetCustomerArchived, useUpdateCustomer } from "@/features/customers/api/mutations";
 import { CustomerForm } from "@/features/customers/components/customer-form";
 import { CustomersTable } from "@/features/customers/components/customers-table";
@@ -20,7 +20,7 @@ import {
   writeCustomerList,
   type CustomerListState,
 } from "@/features/customers/lib/customer-params";
-import { SearchBox } from "@/features/jobs/components/search-box";
+import { SearchBox } from "@/components/ui/search-box";
 
 /** The Customers screen: search, paging, live/archived, add and edit in a dialog, archive and restore. */
 export function CustomersManager() {

@@ -4,7 +4,7 @@ import { cn } from "@/lib/cn";
 import { paths } from "@/config/paths";
 import { Button } from "@/components/ui/button";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
-import { formatDateTime, formatShortDate } from "@/features/jobs/lib/format";
+import { formatDateTime, formatShortDate } from "@/lib/format";
 
 type Props = {
   customers: CustomerDto[];

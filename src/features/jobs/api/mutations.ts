@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient, type QueryClient } from "@tanstack/react-query";
 import type { JobAssignment, JobDto, JobFormValues, JobUpdate } from "@shared/schemas/job";
 import { api } from "@/lib/api-client";
-import { jobKeys } from "@/features/jobs/api/queries";
-import { customerKeys } from "@/features/customers/api/queries";
-import { roofKeys } from "@/features/roof/api/queries";
+import { jobKeys } from "@/lib/queries/jobs";
+import { customerKeys } from "@/lib/queries/customers";
+import { roofKeys } from "@/lib/queries/roof";
 
 /** A changed job: the detail is replaced, the board lists and this job's log refetch. */
 function afterJobChange(qc: QueryClient, job: JobDto) {

@@ -12,7 +12,7 @@ import { Field } from "@/components/ui/field";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
-import { userQueries } from "@/features/users/api/queries";
+import { userQueries } from "@/lib/queries/users";
 import { useSetJobAssignment } from "@/features/jobs/api/mutations";
 
 type FormValues = z.input<typeof jobAssignmentSchema>;

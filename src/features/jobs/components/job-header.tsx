@@ -4,7 +4,7 @@ import type { JobDto } from "@shared/schemas/job";
 import { paths } from "@/config/paths";
 import { JobStatusBadge } from "@/features/jobs/components/job-status-badge";
 import { ProposalProgressLine, proposalOf } from "@/features/jobs/components/proposal-progress";
-import { DASH, formatMoney, formatSquares, fullSite } from "@/features/jobs/lib/format";
+import { DASH, formatMoney, formatSquares, fullSite } from "@/lib/format";
 
 type Props = { job: JobDto; showQuoteTotal: boolean };
 

@@ -7,11 +7,11 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Pager } from "@/components/ui/pager";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
-import { useMe } from "@/features/auth/api/queries";
-import { userQueries } from "@/features/users/api/queries";
-import { useJob, useJobAudit } from "@/features/jobs/api/queries";
+import { useMe } from "@/lib/auth";
+import { userQueries } from "@/lib/queries/users";
+import { useJob, useJobAudit } from "@/lib/queries/jobs";
 import { summarizeAudit } from "@/features/jobs/lib/audit-summary";
-import { formatDateTime } from "@/features/jobs/lib/format";
+import { formatDateTime } from "@/lib/format";
 
 const PAGE_SIZE = 25;
 

@@ -16,11 +16,11 @@ import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
-import { userQueries } from "@/features/users/api/queries";
-import { useJobs } from "@/features/jobs/api/queries";
+import { userQueries } from "@/lib/queries/users";
+import { useJobs } from "@/lib/queries/jobs";
 import { JobsTable } from "@/features/jobs/components/jobs-table";
-import { NewJobForm } from "@/features/jobs/components/new-job-form";
-import { SearchBox } from "@/features/jobs/components/search-box";
+import { NewJobForm, type CustomerInputs } from "@/features/jobs/components/new-job-form";
+import { SearchBox } from "@/components/ui/search-box";
 import { PAGE_SIZES, nextSort, readBoard, toRequest, writeBoard, type BoardState } from "@/features/jobs/lib/board-params";
 import { STATUS_LABELS } from "@/features/jobs/lib/status";
 import { useCreateJob } from "@/features/jobs/api/mutations";
@@ -50,7 +50,8 @@ function TeamEstimatorOptions({ me }: { me: UserDto }) {
 }
 
 /** The jobs board: filters, the table, paging, and the new-job dialog. Its state is in the URL. */
-export function JobsBoard({ me }: { me: UserDto }) {
+/** `customerInputs`: the customer picker and fields the new-job form shows (from the customers feature). */
+export function JobsBoard({ me, customerInputs }: { me: UserDto; customerInputs: CustomerInputs }) {
   const [searchParams, setSearchParams] = useSearchParams();
   const navigate = useNavigate();
   const board = readBoard(searchParams);
@@ -246,6 +247,7 @@ export function JobsBoard({ me }: { me: UserDto }) {
         >
           <NewJobForm
             me={me}
+            customerInputs={customerInputs}
             onCancel={() => setCreating(false)}
             onSubmit={async (values) => {
               const job = await createJob.mutateAsync(values);

@@ -6,7 +6,7 @@ import { paths } from "@/config/paths";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { JobStatusBadge } from "@/features/jobs/components/job-status-badge";
 import { ProposalProgressBadge, proposalOf } from "@/features/jobs/components/proposal-progress";
-import { DASH, formatDateTime, formatMoney, formatShortDate, formatSquares, shortSite } from "@/features/jobs/lib/format";
+import { DASH, formatDateTime, formatMoney, formatShortDate, formatSquares, shortSite } from "@/lib/format";
 import { sortOf, type SortColumn } from "@/features/jobs/lib/board-params";
 
 type Props = {

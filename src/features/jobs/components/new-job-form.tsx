@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useRef, useState, type ComponentType } from "react";
 import { Controller, FormProvider, useForm, useWatch, type Resolver } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useQuery } from "@tanstack/react-query";
@@ -13,9 +13,7 @@ import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { Select } from "@/components/ui/select";
 import { Textarea } from "@/components/ui/textarea";
-import { userQueries } from "@/features/users/api/queries";
-import { CustomerFields } from "@/features/customers/components/customer-fields";
-import { CustomerPicker } from "@/features/customers/components/customer-picker";
+import { userQueries } from "@/lib/queries/users";
 import {
   DEFAULT_SITE,
   SITE_FIELD_PATHS,
@@ -28,6 +26,22 @@ import { SiteAddressFields } from "@/features/jobs/components/site-address-field
 
 type Mode = "existing" | "new";
 type Picked = Pick<CustomerDto, "id" | "name"> & Partial<CustomerDto>;
+
+/**
+ * The customer inputs the form shows. They belong to the customers feature, so the screen that renders the
+ * form passes them in (the jobs feature does not import another feature).
+ */
+export type CustomerInputs = {
+  /** Finds an existing customer; "Add … as a new customer" calls `onAddNew` with the typed name. */
+  Picker: ComponentType<{
+    value: Picked | null;
+    onChange: (customer: Picked | null) => void;
+    onAddNew: (name: string) => void;
+    onBlur?: () => void;
+  }>;
+  /** A new customer's fields, registered under `customer.` in the surrounding react-hook-form. */
+  Fields: ComponentType<{ prefix: "customer."; autoFocus?: boolean }>;
+};
 
 const EMPTY_CUSTOMER = {
   name: "",
@@ -69,6 +83,7 @@ type Props = {
   me: UserDto;
   onSubmit: (values: JobInput) => Promise<unknown>;
   onCancel: () => void;
+  customerInputs: CustomerInputs;
 };
 
 /**
@@ -76,7 +91,8 @@ type Props = {
  * (owners choose; an estimator's own jobs are theirs), notes, and the site data for the takeoff (collapsed,
  * with the engine's defaults). Validated with the shared `jobInputSchema`; server field errors land on the fields.
  */
-export function NewJobForm({ me, onSubmit, onCancel }: Props) {
+export function NewJobForm({ me, onSubmit, onCancel, customerInputs }: Props) {
+  const { Picker: CustomerPicker, Fields: CustomerFields } = customerInputs;
   const [mode, setModeState] = useState<Mode>("existing");
   const modeRef = useRef<Mode>("existing");
   const [picked, setPicked] = useState<Picked | null>(null);

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import type { JobDto } from "@shared/schemas/job";
 import { ATTIC_LABELS, DEFAULT_SITE } from "@/features/jobs/components/site-data-fields";
-import { DASH, fullSite } from "@/features/jobs/lib/format";
+import { DASH, fullSite } from "@/lib/format";
 
 const yesNo = (v: boolean | undefined, unknown = "Not stated") => (v === undefined ? unknown : v ? "Yes" : "No");
 const num = (v: number | undefined, unit: string) => (v === undefined ? DASH : `${v} ${unit}`);

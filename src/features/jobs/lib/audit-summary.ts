@@ -1,5 +1,5 @@
 import type { AuditEventDto } from "@shared/schemas/audit";
-import { formatMoney, formatSquares } from "@/features/jobs/lib/format";
+import { formatMoney, formatSquares } from "@/lib/format";
 import { STATUS_LABELS, isJobStatus } from "@/features/jobs/lib/status";
 
 /** A log entry in words: one headline and, when there is more to say, detail lines. */

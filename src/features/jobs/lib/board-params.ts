@@ -1,5 +1,5 @@
 import { JOB_SORTS, type JobSort, type JobStatus } from "@shared/schemas/job";
-import type { JobListRequest } from "@/features/jobs/api/queries";
+import type { JobListRequest } from "@/lib/queries/jobs";
 import { isJobStatus, OPEN_STATUSES } from "@/features/jobs/lib/status";
 
 /**

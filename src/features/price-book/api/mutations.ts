@@ -11,7 +11,8 @@ import type {
   PricingSettingsInput,
 } from "@shared/schemas/price-book";
 import { api, ApiError } from "@/lib/api-client";
-import { priceBookKeys } from "@/features/price-book/api/queries";
+import { companyKeys } from "@/lib/queries/company";
+import { priceBookKeys } from "@/lib/queries/price-book";
 
 const replaceItem = (list: CatalogItemDto[] | undefined, item: CatalogItemDto) =>
   list ? (list.some((i) => i.id === item.id) ? list.map((i) => (i.id === item.id ? item : i)) : [...list, item]) : list;
@@ -97,7 +98,7 @@ export function useSaveSettings() {
     meta: { handlesError: true },
     onSuccess: (settings) => {
       qc.setQueryData(priceBookKeys.settings(), settings);
-      return qc.invalidateQueries({ queryKey: ["company"] });
+      return qc.invalidateQueries({ queryKey: companyKeys.all });
     },
   });
 }

@@ -19,7 +19,7 @@ import { Select } from "@/components/ui/select";
 import { toast } from "@/components/ui/toast";
 import { useCreateItem } from "@/features/price-book/api/mutations";
 import { categoryLabel } from "@/features/price-book/components/items-tab";
-import { dollarsToCents, parseNumber } from "@/features/price-book/lib/money";
+import { dollarsToCents, parseNumber } from "@/lib/money";
 
 const EMPTY: CatalogItemFormValues = {
   sku: "",

@@ -16,12 +16,12 @@ import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { toast } from "@/components/ui/toast";
-import { useCatalogItems } from "@/features/price-book/api/queries";
+import { useCatalogItems } from "@/lib/queries/price-book";
 import { isStale, useSetItemActive, useUpdateItem } from "@/features/price-book/api/mutations";
 import { AddItemDialog } from "@/features/price-book/components/add-item-dialog";
 import { InlineNumberCell } from "@/features/price-book/components/inline-number-cell";
 import { PriceHistoryDialog } from "@/features/price-book/components/price-history-dialog";
-import { centsToInput, dollarsToCents, formatCents, parseNumber } from "@/features/price-book/lib/money";
+import { centsToInput, dollarsToCents, formatCents, parseNumber } from "@/lib/money";
 
 type EditableField = "unitCostCents" | "packCoverage" | "wastePct";
 

@@ -17,9 +17,9 @@ import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { toast } from "@/components/ui/toast";
-import { useLaborRates } from "@/features/price-book/api/queries";
+import { useLaborRates } from "@/lib/queries/price-book";
 import { useSaveLabor } from "@/features/price-book/api/mutations";
-import { centsToInput, dollarsToCents, formatCents, parseNumber } from "@/features/price-book/lib/money";
+import { centsToInput, dollarsToCents, formatCents, parseNumber } from "@/lib/money";
 
 const KIND_LABEL: Record<LaborKind, string> = {
   pitch_band: "Pitch band",

@@ -4,9 +4,9 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
-import { useMaterialMapping } from "@/features/price-book/api/queries";
+import { useMaterialMapping } from "@/lib/queries/price-book";
 import { categoryLabel } from "@/features/price-book/components/items-tab";
-import { formatCents } from "@/features/price-book/lib/money";
+import { formatCents } from "@/lib/money";
 
 /** Each takeoff material key and the active item that prices it; unpriced keys and rule conflicts stand out. */
 export function MappingTab() {

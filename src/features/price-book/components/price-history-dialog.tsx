@@ -5,8 +5,8 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
-import { usePriceHistory } from "@/features/price-book/api/queries";
-import { formatCents, formatDateTime } from "@/features/price-book/lib/money";
+import { usePriceHistory } from "@/lib/queries/price-book";
+import { formatCents, formatDateTime } from "@/lib/money";
 
 /** Every recorded cost, pack coverage and waste of one item, newest first. */
 export function PriceHistoryDialog({ item, onClose }: { item: CatalogItemDto | null; onClose: () => void }) {

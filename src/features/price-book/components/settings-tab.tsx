@@ -11,9 +11,9 @@ import { Input } from "@/components/ui/input";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
-import { usePricingSettings } from "@/features/price-book/api/queries";
+import { usePricingSettings } from "@/lib/queries/price-book";
 import { useSaveSettings } from "@/features/price-book/api/mutations";
-import { parseNumber } from "@/features/price-book/lib/money";
+import { parseNumber } from "@/lib/money";
 
 type FormValues = z.input<typeof pricingSettingsSchema>;
 

@@ -1,21 +1,12 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
-import type { JobDto } from "@shared/schemas/job";
 import type { ProposalDto } from "@shared/schemas/proposal-api";
-import type { QuoteSummary } from "@shared/schemas/quote";
 import { api } from "@/lib/api-client";
+import { jobKeys, jobQueries } from "@/lib/queries/jobs";
+import { quoteKeys, quoteQueries } from "@/lib/queries/quotes";
 
 export const proposalKeys = {
   all: ["proposals"] as const,
   job: (jobId: number) => [...proposalKeys.all, "job", jobId] as const,
-};
-
-/**
- * The job's quotes and the job itself, as the Pricing section and the job header load them. A feature does
- * not import another, so the minimal queries are repeated here, under the same keys so the cache is shared.
- */
-const sharedKeys = {
-  jobQuotes: (jobId: number) => ["quotes", "job", jobId] as const,
-  job: (jobId: number) => ["jobs", "detail", jobId] as const,
 };
 
 export const proposalQueries = {
@@ -24,16 +15,9 @@ export const proposalQueries = {
       queryKey: proposalKeys.job(jobId),
       queryFn: ({ signal }) => api<{ data: ProposalDto[] }>(`/jobs/${jobId}/proposals`, { signal }).then((r) => r.data),
     }),
-  jobQuotes: (jobId: number) =>
-    queryOptions({
-      queryKey: sharedKeys.jobQuotes(jobId),
-      queryFn: ({ signal }) => api<{ data: QuoteSummary[] }>(`/jobs/${jobId}/quotes`, { signal }).then((r) => r.data),
-    }),
-  jobDetail: (jobId: number) =>
-    queryOptions({
-      queryKey: sharedKeys.job(jobId),
-      queryFn: ({ signal }) => api<{ data: JobDto }>(`/jobs/${jobId}`, { signal }).then((r) => r.data),
-    }),
+  /** The job's quotes and the job itself: the shared queries the Pricing section and the job header use. */
+  jobQuotes: (jobId: number) => quoteQueries.job(jobId),
+  jobDetail: (jobId: number) => jobQueries.detail(jobId),
 };
 
 export const useJobProposals = (jobId: number) => useQuery(proposalQueries.job(jobId));
@@ -41,4 +25,4 @@ export const useJobQuotesForProposal = (jobId: number) => useQuery(proposalQueri
 export const useJobForProposal = (jobId: number) => useQuery(proposalQueries.jobDetail(jobId));
 
 /** What the proposal section touches when a proposal goes out: the list here, the quotes' status, the job's status and progress. */
-export const invalidatedBySend = (jobId: number) => [proposalKeys.job(jobId), ["quotes"], ["jobs"]] as const;
+export const invalidatedBySend = (jobId: number) => [proposalKeys.job(jobId), quoteKeys.all, jobKeys.all] as const;

@@ -8,7 +8,8 @@ import type {
   QuoteSubmitInput,
 } from "@shared/schemas/quote";
 import { api, ApiError } from "@/lib/api-client";
-import { quoteKeys } from "@/features/quotes/api/queries";
+import { jobKeys } from "@/lib/queries/jobs";
+import { quoteKeys } from "@/lib/queries/quotes";
 
 /** A changed quote: its detail goes straight into the cache; its job's list and the owner's queue refetch. */
 function stored(qc: QueryClient, quote: QuoteDetail) {
@@ -16,7 +17,7 @@ function stored(qc: QueryClient, quote: QuoteDetail) {
   return Promise.all([
     qc.invalidateQueries({ queryKey: quoteKeys.job(quote.jobId) }),
     qc.invalidateQueries({ queryKey: quoteKeys.approvals() }),
-    qc.invalidateQueries({ queryKey: ["jobs"] }), // the job's quote total and status on the board
+    qc.invalidateQueries({ queryKey: jobKeys.all }), // the job's quote total and status on the board
   ]);
 }
 

@@ -1,6 +1,6 @@
 import type { OptionSpec, QuoteLineDto, QuoteLineKind, QuoteOptionDto, RevisionDetail } from "@shared/schemas/quote";
 import { cn } from "@/lib/cn";
-import { formatCents } from "@/features/price-book/lib/money";
+import { formatCents } from "@/lib/money";
 import { MarginText } from "@/features/quotes/components/quote-bits";
 
 export const KIND_LABEL: Record<QuoteLineKind, string> = {

@@ -1,6 +1,6 @@
 import type { QuoteStatus } from "@shared/schemas/quote";
 import { cn } from "@/lib/cn";
-import { formatPct } from "@/features/price-book/lib/money";
+import { formatPct } from "@/lib/money";
 
 export const STATUS_LABEL: Record<QuoteStatus, string> = {
   draft: "Draft",

@@ -5,7 +5,7 @@
  */
 import { z } from "zod";
 import { quotePatchSchema, type QuotePatchInput, type RevisionDetail } from "@shared/schemas/quote";
-import { centsToInput, dollarsToCents, parseNumber } from "@/features/price-book/lib/money";
+import { centsToInput, dollarsToCents, parseNumber } from "@/lib/money";
 
 export type DraftOptionRow = { optionId: number | null; label: string; spec: { spacer: string; foil: "" | "yes" | "no"; stackId: string } };
 export type DraftManualRow = {

@@ -9,7 +9,7 @@ import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { paths } from "@/config/paths";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { cn } from "@/lib/cn";
 import { roofDraftStore } from "../api/roof-draft";
 import { useAddQuoteOption, useEngineRules, useJobSite, usePriceItems, usePriceMapping } from "../stack/api";

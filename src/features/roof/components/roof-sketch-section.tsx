@@ -4,8 +4,8 @@ import { Button } from "@/components/ui/button";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { Spinner } from "@/components/ui/spinner";
 import { errorMessage } from "@/lib/api-client";
-import { useMe } from "@/features/auth/api/queries";
-import { useRoof } from "@/features/roof/api/queries";
+import { useMe } from "@/lib/auth";
+import { useRoof } from "@/lib/queries/roof";
 import { roofDraftStore, useRoofDraft, type RoofDoc } from "@/features/roof/api/roof-draft";
 import { SketchEditor } from "@/features/roof/sketch/sketch-editor";
 

@@ -13,7 +13,7 @@ import { toast } from "@/components/ui/toast";
 import { api, ApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { useSaveRoof } from "../api/mutations";
-import { roofKeys } from "../api/queries";
+import { roofKeys } from "@/lib/queries/roof";
 import { roofDraftStore, useRoofDraft } from "../api/roof-draft";
 
 const time = (iso: string | null) =>

@@ -5,26 +5,21 @@
  * numbers come from the server.
  */
 import { useDeferredValue, useMemo } from "react";
-import { queryOptions, useQuery } from "@tanstack/react-query";
+import { useQuery } from "@tanstack/react-query";
 import type { JobDto } from "@shared/schemas/job";
 import type { Rules } from "@shared/schemas/takeoff";
 import { computeTakeoff } from "@shared/engine/takeoff";
 import type { TakeoffOutcome } from "@shared/engine/types";
-import { api } from "@/lib/api-client";
-import { jobQueries } from "@/features/jobs/api/queries";
+import { jobQueries } from "@/lib/queries/jobs";
+import { priceBookQueries } from "@/lib/queries/price-book";
 import type { RoofDoc } from "@/features/roof/api/roof-draft";
 import { withDefaultStack } from "./edits";
 
-/** The job and the price book's rules, under the app's keys ("jobs", "price-book"), so caches are shared. */
+/** The job and the price book's rules: the app's shared queries, so the caches are shared. */
 export const sketchQueries = {
-  /** The jobs feature's own query (its key, so the Site section's saves reach the preview). */
+  /** The shared job query (its key, so the Site section's saves reach the preview). */
   job: (jobId: number) => jobQueries.detail(jobId),
-  rules: () =>
-    queryOptions({
-      queryKey: ["price-book", "rules"] as const,
-      queryFn: ({ signal }) => api<{ data: Rules }>(`/price-book/rules`, { signal }).then((r) => r.data),
-      staleTime: 5 * 60_000,
-    }),
+  rules: () => priceBookQueries.rules(),
 };
 
 export type Preview = TakeoffOutcome | { ok: false; empty: true; reason: string; path: (string | number)[] };

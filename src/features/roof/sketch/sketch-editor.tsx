@@ -14,7 +14,7 @@ import { toast } from "@/components/ui/toast";
 import { ApiError, errorMessage } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
 import { useSaveRoof } from "@/features/roof/api/mutations";
-import { roofQueries } from "@/features/roof/api/queries";
+import { roofQueries } from "@/lib/queries/roof";
 import { roofDraftStore, type RoofDraft } from "@/features/roof/api/roof-draft";
 import { applyIntent, newIdPrefix, planeFromOutline, uniqueName, type SketchIntent } from "./edits";
 import { boundsOf, dist, fitView, planArea, selfCrosses, SNAP_STEPS, zoomAt, type Pt, type View } from "./geometry";

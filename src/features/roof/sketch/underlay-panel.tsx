@@ -6,7 +6,6 @@
  */
 import { useId, useRef, useState } from "react";
 import { useQuery, useQueryClient } from "@tanstack/react-query";
-import type { AttachmentDto } from "@shared/schemas/attachment";
 import type { Underlay } from "@shared/schemas/roof";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
@@ -14,10 +13,9 @@ import { Input } from "@/components/ui/input";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
-import { api, errorMessage } from "@/lib/api-client";
+import { errorMessage } from "@/lib/api-client";
 import { roofDraftStore } from "@/features/roof/api/roof-draft";
-import { uploadAttachment } from "@/features/uploads/api/mutations";
-import { attachmentKeys } from "@/features/uploads/api/queries";
+import { attachmentKeys, attachmentQueries, uploadAttachment } from "@/lib/queries/attachments";
 import { CommitInput } from "./commit-input";
 import { feetInches, parseFeet, type Pt, type View } from "./geometry";
 import type { UnderlayImageState } from "./underlay-image";
@@ -37,12 +35,6 @@ export type UnderlayMode = "move" | "scale" | null;
 /** What the picker offers: the files the server has as images or PDFs. */
 export const PLAN_ACCEPT = "image/jpeg,image/png,image/webp,application/pdf,.pdf";
 const PLAN_MIMES = new Set(["image/jpeg", "image/png", "image/webp", "application/pdf"]);
-
-export const planAttachmentsQuery = (jobId: number) => ({
-  queryKey: [...attachmentKeys.list(jobId), "plan"] as const,
-  queryFn: ({ signal }: { signal: AbortSignal }) =>
-    api<{ data: AttachmentDto[] }>(`/jobs/${jobId}/attachments?kind=plan`, { signal }).then((r) => r.data),
-});
 
 /** Writes the draft's underlay (null removes it: the next save removes it on the server too). */
 export function setDraftUnderlay(jobId: number, underlay: Underlay | null, opts?: { coalesce?: boolean }) {
@@ -64,7 +56,7 @@ interface Props {
 
 export function UnderlayPanel({ jobId, underlay, image, view, canvas, mode, onMode, scalePoints, onClearScalePoints, onClose }: Props) {
   const qc = useQueryClient();
-  const plans = useQuery(planAttachmentsQuery(jobId));
+  const plans = useQuery(attachmentQueries.plans(jobId));
   const fileRef = useRef<HTMLInputElement>(null);
   const [uploading, setUploading] = useState<number | null>(null);
   const [distance, setDistance] = useState("");

@@ -1,55 +1,22 @@
 /**
  * Data the Layer stack and Gap study sections read besides the roof: the job's site (for the engine
- * preview), the price book's engine rules, items and takeoff-key mapping, and the quotes the Gap study
- * adds an option to. Keys follow the app's factories ("jobs", "price-book", "quotes") so the other
- * screens' caches are shared, not duplicated.
+ * preview), the price book's engine rules, active items and takeoff-key mapping, and the quotes the Gap study
+ * adds an option to. The queries and keys are the app's shared ones (src/lib/queries), so the other screens'
+ * caches are shared, not duplicated.
  */
-import { queryOptions, useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import type { JobDto } from "@shared/schemas/job";
-import type { CatalogItemDto, MaterialMappingDto } from "@shared/schemas/price-book";
-import type { Rules } from "@shared/schemas/takeoff";
+import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
+import { jobQueries } from "@/lib/queries/jobs";
+import { priceBookQueries } from "@/lib/queries/price-book";
+import { quoteKeys } from "@/lib/queries/quotes";
 
-export const stackDataKeys = {
-  job: (jobId: number) => ["jobs", "detail", jobId] as const,
-  rules: () => ["price-book", "rules"] as const,
-  items: () => ["price-book", "items", "list", {}] as const,
-  mapping: () => ["price-book", "mapping"] as const,
-  jobQuotes: (jobId: number) => ["quotes", "job", jobId] as const,
-  quote: (id: number) => ["quotes", "detail", id] as const,
-};
-
-export const stackDataQueries = {
-  job: (jobId: number) =>
-    queryOptions({
-      queryKey: stackDataKeys.job(jobId),
-      queryFn: ({ signal }) => api<{ data: JobDto }>(`/jobs/${jobId}`, { signal }).then((r) => r.data),
-    }),
-  rules: () =>
-    queryOptions({
-      queryKey: stackDataKeys.rules(),
-      queryFn: ({ signal }) => api<{ data: Rules }>("/price-book/rules", { signal }).then((r) => r.data),
-      staleTime: 5 * 60_000,
-    }),
-  items: () =>
-    queryOptions({
-      queryKey: stackDataKeys.items(),
-      queryFn: ({ signal }) => api<{ data: CatalogItemDto[] }>("/price-book/items", { signal }).then((r) => r.data),
-      staleTime: 60_000,
-    }),
-  mapping: () =>
-    queryOptions({
-      queryKey: stackDataKeys.mapping(),
-      queryFn: ({ signal }) => api<{ data: MaterialMappingDto[] }>("/price-book/mapping", { signal }).then((r) => r.data),
-      staleTime: 60_000,
-    }),
-};
-
-export const useJobSite = (jobId: number) => useQuery({ ...stackDataQueries.job(jobId), select: (j) => j.site });
+export const useJobSite = (jobId: number) => useQuery({ ...jobQueries.detail(jobId), select: (j) => j.site });
 /** The engine rules of the company's price book; `enabled: false` for crew (the route answers 403). */
-export const useEngineRules = (enabled = true) => useQuery({ ...stackDataQueries.rules(), enabled, retry: false });
-export const usePriceItems = (enabled = true) => useQuery({ ...stackDataQueries.items(), enabled });
-export const usePriceMapping = (enabled = true) => useQuery({ ...stackDataQueries.mapping(), enabled });
+export const useEngineRules = (enabled = true) => useQuery({ ...priceBookQueries.rules(), enabled, retry: false });
+export const usePriceItems = (enabled = true) => useQuery({ ...priceBookQueries.activeItems(), enabled });
+/** The takeoff-key mapping rows (the Price book screen's query, without its conflict list). */
+export const usePriceMapping = (enabled = true) =>
+  useQuery({ ...priceBookQueries.mapping(), enabled, staleTime: 60_000, select: (r) => r.data });
 
 // ---- quotes (contract: GET/POST /api/jobs/:jobId/quotes, GET/PATCH /api/quotes/:id) ----------------
 
@@ -107,8 +74,8 @@ export function useAddQuoteOption(jobId: number) {
       return { quote: updated, created: false };
     },
     onSuccess: ({ quote }) => {
-      qc.setQueryData(stackDataKeys.quote(quote.id), quote);
-      return qc.invalidateQueries({ queryKey: ["quotes"] });
+      qc.setQueryData(quoteKeys.detail(quote.id), quote);
+      return qc.invalidateQueries({ queryKey: quoteKeys.all });
     },
   });
 }

@@ -3,7 +3,7 @@
  * shared draft store once it arrives (resuming a draft kept in this browser) and returns both.
  */
 import { useEffect, useState } from "react";
-import { useRoof } from "../api/queries";
+import { useRoof } from "@/lib/queries/roof";
 import { roofDraftStore, useRoofDraft, type RoofDraft } from "../api/roof-draft";
 
 export function useJobRoof(jobId: number) {

@@ -7,8 +7,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { Spinner } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
-import { useRoof, useStoredTakeoff } from "@/features/roof/api/queries";
-import { useRoofDraft } from "@/features/roof/api/roof-draft";
+import { useRoof, useStoredTakeoff } from "@/lib/queries/roof";
 import { cutListCsv, downloadCsv, takeoffCsv } from "../csv";
 import { AdvisoryList, SeverityIcon } from "./advisory-list";
 import { CutList } from "./cut-list";
@@ -16,11 +15,16 @@ import { MaterialsTable } from "./materials-table";
 import { ThermalFigures, VentilationBalance } from "./ventilation-thermal";
 import { WindZonesPanel } from "./wind-zones";
 
+type Props = {
+  jobId: number;
+  /** True when the roof has unsaved changes in this browser (the numbers below are from the last save). */
+  unsavedRoof?: boolean;
+};
+
 /** The job workspace's Takeoff section: the numbers of the last SAVED roof, as the server stored them. */
-export function TakeoffSection({ jobId }: { jobId: number }) {
+export function TakeoffSection({ jobId, unsavedRoof = false }: Props) {
   const takeoff = useStoredTakeoff(jobId);
   const roof = useRoof(jobId);
-  const draft = useRoofDraft(jobId);
 
   if (takeoff.isPending) return <Spinner label="Loading the takeoff" className="size-5 text-steel-500" />;
   if (takeoff.isError) {
@@ -46,7 +50,6 @@ export function TakeoffSection({ jobId }: { jobId: number }) {
       />
     );
   }
-  const unsaved = Boolean(draft?.dirty);
   const planeNames = new Map(t.planes.map((p) => [p.id, p.name ? `${p.name} (${p.id})` : p.id]));
   const stackNames = new Map((roof.data?.stacks ?? []).map((s) => [s.id, s.name?.trim() || s.id]));
   const counts = { error: 0, warning: 0, info: 0 };
@@ -55,7 +58,7 @@ export function TakeoffSection({ jobId }: { jobId: number }) {
 
   return (
     <div className="space-y-5">
-      {unsaved && (
+      {unsavedRoof && (
         <Alert tone="caution" title="Showing the last saved roof">
           The roof has unsaved changes in this browser; these numbers are from the last save
           {roof.data?.version ? ` (version ${roof.data.version})` : ""}.{" "}

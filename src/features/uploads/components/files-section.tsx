@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { useState, type ReactNode } from "react";
 import type { AttachmentDto } from "@shared/schemas/attachment";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
@@ -7,21 +7,30 @@ import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { errorMessage } from "@/lib/api-client";
-import { useMe } from "@/features/auth/api/queries";
+import { useMe } from "@/lib/auth";
 import { useDeleteAttachment, useUpdateAttachment } from "../api/mutations";
-import { useAttachments } from "../api/queries";
+import { useAttachments } from "@/lib/queries/attachments";
 import { useUploadQueue } from "../lib/use-upload-queue";
 import { ConfirmDelete, DocumentRow, PhotoCard, type AttachmentChange, type ItemPermissions } from "./attachment-items";
-import { PlaneImport } from "./plane-import";
 import { UploadQueue, UploadZone } from "./upload-zone";
 
 const isImage = (a: AttachmentDto) => a.mime.startsWith("image/");
 
+type Props = {
+  jobId: number;
+  /**
+   * Office-only tools shown below the files, never to crew (the job workspace puts the roof-plane import
+   * from a CSV here).
+   */
+  officeTools?: ReactNode;
+};
+
 /**
  * The job's Files: upload (drag and drop, picker, camera), site photos with captions and flags, plan sets
- * and documents, and roof planes from a CSV. Crew upload and see photos on phone-sized screens.
+ * and documents, and whatever office tools the screen adds below them. Crew upload and see photos on
+ * phone-sized screens.
  */
-export function FilesSection({ jobId }: { jobId: number }) {
+export function FilesSection({ jobId, officeTools }: Props) {
   const { data: me } = useMe();
   const crew = me?.role === "crew";
   const list = useAttachments(jobId);
@@ -100,11 +109,7 @@ export function FilesSection({ jobId }: { jobId: number }) {
         </section>
       )}
 
-      {!crew && (
-        <ErrorBoundary>
-          <PlaneImport jobId={jobId} />
-        </ErrorBoundary>
-      )}
+      {!crew && officeTools && <ErrorBoundary>{officeTools}</ErrorBoundary>}
 
       <ConfirmDelete item={toDelete} busy={remove.isPending} onCancel={() => setToDelete(null)} onConfirm={confirmDelete} />
     </div>

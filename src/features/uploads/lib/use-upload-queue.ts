@@ -2,8 +2,7 @@ import { useCallback, useEffect, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { UPLOAD_MAX_BYTES, formatBytes, type AttachmentDto } from "@shared/schemas/attachment";
 import { errorMessage } from "@/lib/api-client";
-import { uploadAttachment } from "../api/mutations";
-import { attachmentKeys } from "../api/queries";
+import { attachmentKeys, uploadAttachment } from "@/lib/queries/attachments";
 
 export type UploadItem = {
   key: string;

@@ -6,7 +6,7 @@ import type {
   UpdateUserInput,
 } from "@shared/schemas/auth";
 import { api } from "@/lib/api-client";
-import { userKeys } from "@/features/users/api/queries";
+import { userKeys } from "@/lib/queries/users";
 
 function replaceMember(list: TeamMemberDto[] | undefined, member: TeamMemberDto) {
   if (!list) return list;

@@ -10,7 +10,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
-import { useTeamMembers } from "@/features/users/api/queries";
+import { useTeamMembers } from "@/lib/queries/users";
 import { useCreateUser, useSetUserPassword, useUpdateUser } from "@/features/users/api/mutations";
 import { AddUserForm } from "@/features/users/components/add-user-form";
 import { SetPasswordForm } from "@/features/users/components/set-password-form";

@@ -1,3 +1,4 @@
+/** The signed-in user (`GET /api/auth/me`): every feature reads it, to show or hide what a role may do. */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { UserDto } from "@shared/schemas/auth";
 import { api, ApiError } from "@/lib/api-client";

@@ -1,3 +1,4 @@
+/** Quotes: one key factory and the queries Pricing, Approvals, Proposals and the Gap study share. */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { ApprovalQueueItem, QuoteDetail, QuoteSummary, RevisionDetail } from "@shared/schemas/quote";
 import { api } from "@/lib/api-client";

@@ -1,3 +1,4 @@
+/** The job's saved roof and takeoff: one key factory and the queries the roof, takeoff and jobs features share. */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { RoofDto } from "@shared/schemas/roof";
 import type { TakeoffResult } from "@shared/engine/types";

@@ -1,7 +1,7 @@
+/** Customers: one key factory and the list query, shared by the Customers screen and the new-job form. */
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import type { CustomerDto, ListMeta } from "@shared/schemas/customer";
-import { api } from "@/lib/api-client";
-import { toSearch } from "@/features/jobs/api/queries";
+import { api, toSearch } from "@/lib/api-client";
 
 /** GET /api/customers parameters (absent = server default). */
 export type CustomerListRequest = { page?: number; pageSize?: number; q?: string; archived?: "1" };

@@ -7,8 +7,8 @@ import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
-import { formatCents, formatDateTime } from "@/features/price-book/lib/money";
-import { useApprovalsQueue } from "@/features/quotes/api/queries";
+import { formatCents, formatDateTime } from "@/lib/money";
+import { useApprovalsQueue } from "@/lib/queries/quotes";
 import { MarginText } from "@/features/quotes/components/quote-bits";
 
 /** How long ago, in words ("3 days"), for the queue's waiting column. */

@@ -1,3 +1,4 @@
+/** The company's team: one key factory and the list the Team screen and the jobs' estimator pickers share. */
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { TeamMemberDto } from "@shared/schemas/auth";
 import { api } from "@/lib/api-client";

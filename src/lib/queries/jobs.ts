@@ -1,8 +1,9 @@
+/** Jobs: one key factory and the queries the board, the workspace, customers, roof and proposals share. */
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
 import type { AuditEventDto } from "@shared/schemas/audit";
 import type { ListMeta } from "@shared/schemas/customer";
 import type { JobDto, JobListItem, JobSort } from "@shared/schemas/job";
-import { api } from "@/lib/api-client";
+import { api, toSearch } from "@/lib/api-client";
 
 /** The board's request: exactly the query parameters sent to GET /api/jobs (absent = server default). */
 export type JobListRequest = {
@@ -28,17 +29,6 @@ export const jobKeys = {
   audits: (id: number) => [...jobKeys.all, "audit", id] as const,
   audit: (id: number, p: AuditPage) => [...jobKeys.audits(id), p] as const,
 };
-
-/** `?a=1&b=x` from the defined, non-empty values (in a fixed order, so the URL is stable). */
-export function toSearch(params: Record<string, string | number | boolean | undefined | null>): string {
-  const s = new URLSearchParams();
-  for (const [k, v] of Object.entries(params)) {
-    if (v === undefined || v === null || v === "") continue;
-    s.set(k, String(v));
-  }
-  const out = s.toString();
-  return out ? `?${out}` : "";
-}
 
 export type JobList = { data: JobListItem[]; meta: ListMeta };
 

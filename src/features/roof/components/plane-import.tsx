@@ -7,8 +7,8 @@ import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { toast } from "@/components/ui/toast";
 import { ApiError, errorMessage } from "@/lib/api-client";
-import { useRoof } from "@/features/roof/api/queries";
-import { useRoofDraft } from "@/features/roof/api/roof-draft";
+import { useRoof } from "@/lib/queries/roof";
+import { useRoofDraft } from "../api/roof-draft";
 import { useCommitPlaneImport } from "../api/mutations";
 
 type Preview = { file: File; version: number; result: RoofCsvResult };
