@@ -10,12 +10,14 @@ import type { Mailer } from "./mail/mailer";
 import type { MailCatcher } from "./mail/catcher";
 import { createPassport, type UserPrefetch } from "./auth/passport";
 import { csrfProtection } from "./middleware/csrf";
+import { jsonBodyOnly } from "./middleware/json-body";
 import { errorHandler } from "./middleware/error-handler";
 import { notFoundHandler } from "./middleware/not-found";
 import { apiRouter } from "./routes/index";
 import { healthRouter } from "./routes/health.routes";
 import { UsersService } from "./services/users.service";
-import { createDiskStorage, type Storage } from "./storage/storage";
+import type { Storage } from "./storage/storage";
+import { createStorage } from "./storage/create-storage";
 import type { PaymentClient } from "./payments/stripe-client";
 import type { PaymentConfig } from "./payments/config";
 import { publicProposalsRouter } from "./routes/public-proposals.routes";
@@ -53,7 +55,7 @@ export function createApp(deps: AppDeps): Express {
   const passport = createPassport(typeof store.takeUser === "function" ? (store as UserPrefetch) : undefined);
   const ctx: AppContext = {
     ...deps,
-    storage: deps.storage ?? createDiskStorage(config.uploads.storageDir),
+    storage: deps.storage ?? createStorage(config),
     passport,
     services: { users: new UsersService(deps.sequelize, config.bcryptRounds) },
   };
@@ -80,6 +82,8 @@ export function createApp(deps: AppDeps): Express {
           "upgrade-insecure-requests": config.env === "production" ? [] : null,
         },
       },
+      // The policy's frame-ancestors 'none', for browsers that only read the older header.
+      frameguard: { action: "deny" },
     }),
   );
 
@@ -95,6 +99,7 @@ export function createApp(deps: AppDeps): Express {
 
   // No session either: the payment webhook (raw body, verified by signature) and the homeowner's token routes.
   app.use("/api/payments/webhook", paymentsWebhookRouter(ctx));
+  app.use("/api", jsonBodyOnly); // 415 for a body that is neither JSON nor (on upload routes) multipart
   app.use("/api/proposals", express.json({ limit: "100kb" }), publicProposalsRouter(ctx));
 
   app.use("/api", express.json({ limit: "1mb" }));

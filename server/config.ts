@@ -43,6 +43,17 @@ const envSchema = z.object({
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
   /** Uploaded files (outside the web root); relative paths are from the working directory. */
   STORAGE_DIR: z.string().min(1).default(".data/storage"),
+  /** Where uploads are kept: "disk" (STORAGE_DIR) or "s3" (an S3-compatible bucket: S3_* below). */
+  STORAGE_DRIVER: z.enum(["disk", "s3"]).default("disk"),
+  /** The object storage service's URL; unset = the hosted service of S3_REGION. */
+  S3_ENDPOINT: z.preprocess((v) => (v === "" ? undefined : v), z.string().url().optional()),
+  S3_BUCKET: z.string().optional(),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  /** Both or neither; neither = the SDK's usual credential chain (environment, instance role…). */
+  S3_ACCESS_KEY_ID: z.string().optional(),
+  S3_SECRET_ACCESS_KEY: z.string().optional(),
+  /** Path-style URLs (endpoint/bucket/key), which most self-hosted services need. */
+  S3_FORCE_PATH_STYLE: bool,
   /** Largest accepted upload, bytes per file (25 MB). */
   UPLOAD_MAX_BYTES: z.coerce.number().int().min(1).default(25 * 1024 * 1024),
   /** How often the proposal scheduler expires proposals and sends reminders (ms). */
@@ -70,6 +81,11 @@ export interface Config {
   outbox: { pollMs: number; maxAttempts: number };
   /** Uploads: the storage folder and the per-file size limit. */
   uploads: { storageDir: string; maxBytes: number };
+  /** Which storage driver keeps the uploads; `s3` only with driver "s3". */
+  storage: {
+    driver: "disk" | "s3";
+    s3?: { bucket: string; endpoint?: string; region: string; forcePathStyle: boolean; credentials?: { accessKeyId: string; secretAccessKey: string } };
+  };
   /** Deposits: the local test payment service (useFake) or the hosted one (STRIPE_* variables). */
   payments: PaymentConfig;
   /** The proposal scheduler's interval and the reminder's lead time. */
@@ -95,6 +111,10 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
       user: decodeURIComponent(u.username),
       password: decodeURIComponent(u.password),
     };
+  }
+  if (e.STORAGE_DRIVER === "s3" && !e.S3_BUCKET) throw new Error("S3_BUCKET is required when STORAGE_DRIVER=s3");
+  if (Boolean(e.S3_ACCESS_KEY_ID) !== Boolean(e.S3_SECRET_ACCESS_KEY)) {
+    throw new Error("Set both S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY, or neither (the SDK's credential chain)");
   }
   if (e.NODE_ENV === "production" && !e.SESSION_SECRET) {
     throw new Error("SESSION_SECRET (16+ characters) is required when NODE_ENV=production");
@@ -122,6 +142,19 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     },
     outbox: { pollMs: e.OUTBOX_POLL_MS, maxAttempts: e.OUTBOX_MAX_ATTEMPTS },
     uploads: { storageDir: e.STORAGE_DIR, maxBytes: e.UPLOAD_MAX_BYTES },
+    storage:
+      e.STORAGE_DRIVER === "s3"
+        ? {
+            driver: "s3",
+            s3: {
+              bucket: e.S3_BUCKET!,
+              endpoint: e.S3_ENDPOINT,
+              region: e.S3_REGION,
+              forcePathStyle: e.S3_FORCE_PATH_STYLE,
+              credentials: e.S3_ACCESS_KEY_ID ? { accessKeyId: e.S3_ACCESS_KEY_ID, secretAccessKey: e.S3_SECRET_ACCESS_KEY! } : undefined,
+            },
+          }
+        : { driver: "disk" },
     // Under NODE_ENV=test the fake takes any free port unless one is named (as the mail catcher does).
     payments: loadPaymentConfig(e.NODE_ENV === "test" && env.PAYMENT_FAKE_PORT === undefined ? { ...env, PAYMENT_FAKE_PORT: "0" } : env),
     proposals: { schedulerMs: e.PROPOSAL_SCHEDULER_MS, reminderDaysBefore: e.REMINDER_DAYS_BEFORE },

@@ -4,7 +4,7 @@ import { fileURLToPath } from "node:url";
 import { loadConfig, type Config } from "./config";
 import { createLogger, type Logger } from "./logger";
 import { createSequelize } from "./db/sequelize";
-import { createMigrator } from "./db/migrator";
+import { createMigrator, withStartupLock } from "./db/migrator";
 import { initModels } from "./models/index";
 import { createSessionStore } from "./session-store";
 import { createApp } from "./app";
@@ -12,10 +12,11 @@ import { seedDemo } from "./db/seeders/demo";
 import { createSmtpMailer } from "./mail/mailer";
 import type { MailCatcher } from "./mail/catcher";
 import { OutboxWorker } from "./services/outbox.service";
-import { createDiskStorage } from "./storage/storage";
+import { createStorage } from "./storage/create-storage";
 import type { PaymentFake } from "./fakes/payment-fake";
 import { createPaymentClient } from "./payments/stripe-client";
 import { startProposalScheduler } from "./services/proposal-scheduler";
+import { shutdownRateLimitStores } from "./middleware/rate-limit-store";
 
 export interface RunningServer {
   server: Server;
@@ -34,12 +35,13 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
   const sequelize = createSequelize(config.db);
   initModels(sequelize);
   await sequelize.authenticate();
-  const migrated = await createMigrator(sequelize).up();
+  // Servers starting together take turns: one migrates (and seeds), the others find it done.
+  const { migrated, seeded } = await withStartupLock(sequelize, async () => ({
+    migrated: await createMigrator(sequelize).up(),
+    seeded: config.seedDemo ? await seedDemo(sequelize, { bcryptRounds: config.bcryptRounds }) : false,
+  }));
   if (migrated.length) logger.info(`applied ${migrated.length} migration(s)`);
-  if (config.seedDemo) {
-    const seeded = await seedDemo(sequelize, { bcryptRounds: config.bcryptRounds });
-    if (seeded) logger.info("demo data seeded");
-  }
+  if (seeded) logger.info("demo data seeded");
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
   // E-mail: a real SMTP server (SMTP_URL), else the local catcher in this process (kept in MAIL_CATCHER_DIR, .data/mail by default).
   let mailCatcher: MailCatcher | undefined;
@@ -74,7 +76,8 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
     maxAttempts: config.outbox.maxAttempts,
     tagForCatcher: Boolean(mailCatcher),
   });
-  const storage = createDiskStorage(path.resolve(root, config.uploads.storageDir)); // outside dist/, never served statically
+  // STORAGE_DRIVER: a folder outside dist/ (never served statically), or an S3-compatible bucket.
+  const storage = createStorage(config, root);
   // Payments: the local test payment service in this process (its webhooks come back to this app), or the hosted one.
   let paymentFake: PaymentFake | undefined;
   if (config.payments.useFake && config.payments.fake) {
@@ -139,6 +142,7 @@ export async function startServer(config: Config = loadConfig(), logger: Logger 
       mailer.close?.();
       await mailCatcher?.close();
       await paymentFake?.close();
+      shutdownRateLimitStores(sequelize);
       await sequelize.close();
     },
   };

@@ -12,7 +12,11 @@ export type LogLevel = keyof typeof LEVELS;
 function format(meta?: Record<string, unknown>): string {
   if (!meta) return "";
   const parts = Object.entries(meta).map(([k, v]) => {
-    if (v instanceof Error) return `${k}=${v.stack ?? v.message}`;
+    if (v instanceof Error) {
+      // Sequelize's errors carry a stack taken before the query ran ("Error\n at Query.run…"), without the message.
+      const head = `${v.name}: ${v.message}`;
+      return `${k}=${v.stack?.startsWith(head) ? v.stack : `${head}${v.stack ? `\n${v.stack.split("\n").slice(1).join("\n")}` : ""}`}`;
+    }
     return `${k}=${typeof v === "string" ? v : JSON.stringify(v)}`;
   });
   return parts.length ? " " + parts.join(" ") : "";

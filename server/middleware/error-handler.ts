@@ -64,12 +64,15 @@ export function toHttpError(err: unknown): HttpError {
   return new HttpError(500, "internal", "Something went wrong");
 }
 
+/** The path for the log without credentials: a link token (20+ URL-safe characters) becomes `:token`. */
+export const redactPath = (p: string) => p.replace(/\/[A-Za-z0-9_-]{20,}(?=\/|$)/g, "/:token");
+
 export const errorHandler =
   (logger: Logger): ErrorRequestHandler =>
   (err, req, res, next) => {
     if (res.headersSent) return next(err);
     const e = toHttpError(err);
-    if (e.status >= 500) logger.error("request failed", { method: req.method, path: req.path, err });
+    if (e.status >= 500) logger.error("request failed", { method: req.method, path: redactPath(req.originalUrl.split("?")[0] ?? ""), err });
     const body: Record<string, unknown> = { code: e.code, message: e.message };
     if (e.fields) body.fields = e.fields;
     res.status(e.status).json({ error: body, ...(e.extra ?? {}) });

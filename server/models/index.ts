@@ -15,6 +15,7 @@ import { initMailModels } from "./mail.models";
 import { Approval, Quote, QuoteLine, QuoteOption, QuoteRevision, initQuoteModels } from "./quote.models";
 import { Attachment, initAttachment } from "./attachment.model";
 import { Payment, PaymentEvent, Proposal, RevisionPdf, initProposalModels } from "./proposal.models";
+import { RateLimitHit, initRateLimitHit } from "./rate-limit-hit.model";
 
 let initialisedWith: Sequelize | null = null;
 
@@ -53,6 +54,7 @@ export function initModels(sequelize: Sequelize): void {
   initAttachment(sequelize);
   Attachment.belongsTo(User, { as: "uploader", foreignKey: "uploadedBy", constraints: false });
   initProposalModels(sequelize);
+  initRateLimitHit(sequelize);
   initialisedWith = sequelize;
 }
 
@@ -62,3 +64,4 @@ export { CatalogItem, CatalogItemPrice, LaborRate, CompanySettings };
 export { Quote, QuoteRevision, QuoteOption, QuoteLine, Approval };
 export { Attachment };
 export { Proposal, Payment, PaymentEvent, RevisionPdf };
+export { RateLimitHit };

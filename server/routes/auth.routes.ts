@@ -9,6 +9,8 @@ import { presentSessionUser } from "../presenters/user.presenter";
 import { User } from "../models/index";
 import type { UsersService } from "../services/users.service";
 import type { Config } from "../config";
+import type { Sequelize } from "sequelize";
+import { sharedRateLimitStore } from "../middleware/rate-limit-store";
 
 type PassportInstance = ReturnType<typeof createPassport>;
 
@@ -23,7 +25,8 @@ const loginKey = (req: Request) => {
   return `${ipKeyGenerator(req.ip ?? "0.0.0.0")}|${email}`;
 };
 
-export function authRouter(deps: { passport: PassportInstance; users: UsersService; config: Config }): Router {
+/** `sequelize` puts the sign-in limiter's counts in the database, shared by every server process. */
+export function authRouter(deps: { passport: PassportInstance; users: UsersService; config: Config; sequelize?: Sequelize }): Router {
   const { passport, users, config } = deps;
   const router = Router();
 
@@ -32,6 +35,7 @@ export function authRouter(deps: { passport: PassportInstance; users: UsersServi
     windowMs: config.loginWindowMs,
     limit: config.loginMaxFailures,
     keyGenerator: loginKey,
+    store: sharedRateLimitStore(deps.sequelize, "login"),
     skipSuccessfulRequests: true,
     standardHeaders: "draft-8",
     legacyHeaders: false,

@@ -19,7 +19,7 @@ import { installPacketRouter } from "./install-packet.routes";
 /** Every session-authenticated API route; mounted behind the session, passport and CSRF middleware. */
 export function apiRouter(ctx: AppContext): Router {
   const router = Router();
-  router.use("/auth", authRouter({ passport: ctx.passport, users: ctx.services.users, config: ctx.config }));
+  router.use("/auth", authRouter({ passport: ctx.passport, users: ctx.services.users, config: ctx.config, sequelize: ctx.sequelize }));
   router.use("/users", usersRouter(ctx.services.users));
   router.use("/calc", calcRouter());
   router.use("/customers", customersRouter(ctx));

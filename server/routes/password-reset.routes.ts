@@ -4,6 +4,7 @@ import { forgotPasswordInputSchema, resetPasswordInputSchema } from "../../share
 import type { AppContext } from "../app";
 import { PasswordResetService } from "../services/password-reset.service";
 import { requireBody } from "./auth.routes";
+import { sharedRateLimitStore } from "../middleware/rate-limit-store";
 
 /** Forgot-password requests per IP and window (each may send an e-mail). */
 export const FORGOT_PER_IP = 5;
@@ -11,10 +12,12 @@ export const FORGOT_PER_IP = 5;
 export const RESET_PER_IP = 20;
 const WINDOW_MS = 15 * 60_000;
 
-const limiter = (limit: number, message: string) =>
+/** Counts live in the database (`prefix` keeps each limiter's apart), shared by every server process. */
+const limiter = (ctx: AppContext, prefix: string, limit: number, message: string) =>
   rateLimit({
     windowMs: WINDOW_MS,
     limit,
+    store: sharedRateLimitStore(ctx.sequelize, prefix, ctx.logger),
     standardHeaders: "draft-8",
     legacyHeaders: false,
     handler: (_req, res) => {
@@ -36,7 +39,7 @@ export function passwordResetRouter(ctx: AppContext): Router {
   // 202 whether or not the e-mail belongs to an account, so the answer reveals nothing.
   router.post(
     "/forgot",
-    limiter(FORGOT_PER_IP, "Too many reset requests from here; wait a few minutes and try again"),
+    limiter(ctx, "forgot", FORGOT_PER_IP, "Too many reset requests from here; wait a few minutes and try again"),
     async (req: Request, res) => {
       const input = forgotPasswordInputSchema.parse(requireBody(req));
       await service.request(input.email, { ip: req.ip });
@@ -48,7 +51,7 @@ export function passwordResetRouter(ctx: AppContext): Router {
 
   router.post(
     "/reset",
-    limiter(RESET_PER_IP, "Too many attempts from here; wait a few minutes and try again"),
+    limiter(ctx, "reset", RESET_PER_IP, "Too many attempts from here; wait a few minutes and try again"),
     async (req: Request, res) => {
       const input = resetPasswordInputSchema.parse(requireBody(req));
       await service.reset(input.token, input.password, req.sessionID);

@@ -8,6 +8,7 @@ import type { AppContext } from "../app";
 import { notFound, unauthorized } from "../errors";
 import { ProposalsService } from "../services/proposals.service";
 import { parseId } from "./users.routes";
+import { optionalBody } from "../middleware/json-body";
 
 /** 401 signed out; 404 for crew (proposals carry prices, and crew may not know the quote exists). */
 const officeOr404 =
@@ -48,7 +49,7 @@ export function quoteProposalsRouter(ctx: Pick<AppContext, "sequelize" | "storag
 
   router.post("/:id/send", office, async (req, res) => {
     const id = quoteIdOf(req);
-    const input = proposalSendSchema.parse(req.body ?? {});
+    const input = proposalSendSchema.parse(optionalBody(req));
     const p = await proposals.send(id, input, req.user!);
     const [dto] = await proposals.present([p]);
     res.status(201).json({ data: dto });

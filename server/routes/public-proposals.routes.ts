@@ -11,16 +11,20 @@ import { PaymentsService, paymentsUnavailable } from "../services/payments.servi
 import { ProposalsService } from "../services/proposals.service";
 import { requireBody } from "./auth.routes";
 import { sendPdf } from "./proposals.routes";
+import { optionalBody } from "../middleware/json-body";
+import { sharedRateLimitStore } from "../middleware/rate-limit-store";
 
 /** Requests per IP per window on these routes: reads (page, PDF) and writes (accept, decline, deposit). */
 export const PUBLIC_READS_PER_IP = 120;
 export const PUBLIC_WRITES_PER_IP = 30;
 const WINDOW_MS = 15 * 60_000;
 
-const limiter = (limit: number) =>
+/** Counts live in the database (`prefix` keeps each limiter's apart), shared by every server process. */
+const limiter = (ctx: AppContext, prefix: string, limit: number) =>
   rateLimit({
     windowMs: WINDOW_MS,
     limit,
+    store: sharedRateLimitStore(ctx.sequelize, prefix, ctx.logger),
     standardHeaders: "draft-8",
     legacyHeaders: false,
     handler: (_req, res) => {
@@ -33,8 +37,8 @@ export function publicProposalsRouter(ctx: AppContext): Router {
   const payments = ctx.payments
     ? new PaymentsService({ sequelize: ctx.sequelize, stripe: ctx.payments.stripe, config: ctx.payments.config, publicUrl: ctx.config.publicUrl, proposals, logger: ctx.logger })
     : null;
-  const reads = limiter(PUBLIC_READS_PER_IP);
-  const writes = limiter(PUBLIC_WRITES_PER_IP);
+  const reads = limiter(ctx, "proposal-reads", PUBLIC_READS_PER_IP);
+  const writes = limiter(ctx, "proposal-writes", PUBLIC_WRITES_PER_IP);
   const router = Router();
   const tokenOf = (req: Request) => String(req.params.token);
 
@@ -63,7 +67,7 @@ export function publicProposalsRouter(ctx: AppContext): Router {
   router.post("/:token/decline", writes, async (req, res) => {
     const token = tokenOf(req);
     await proposals.byToken(token);
-    const input = proposalDeclineSchema.parse(req.body ?? {});
+    const input = proposalDeclineSchema.parse(optionalBody(req));
     await proposals.decline(token, input);
     res.json({ data: await proposals.publicDto(await proposals.byToken(token), token) });
   });

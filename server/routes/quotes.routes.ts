@@ -15,6 +15,7 @@ import { requireRole } from "../middleware/require-auth";
 import { presentQuoteDetail, presentQuoteSummary, presentRevision } from "../presenters/quote.presenter";
 import { QuotesService } from "../services/quotes.service";
 import { requireBody } from "./auth.routes";
+import { optionalBody } from "../middleware/json-body";
 import { parseId } from "./users.routes";
 
 /** Owners and estimators; crew get 403 on every quote route (quotes carry prices). */
@@ -24,7 +25,7 @@ const ownerOnly = requireRole("owner");
 const quoteIdOf = (req: Request) => parseId(String(req.params.id), "Quote");
 
 /** The body, or `{}` when none was sent (routes whose body fields are all optional). */
-const bodyOrEmpty = (req: Request): unknown => req.body ?? {};
+const bodyOrEmpty = (req: Request): unknown => optionalBody(req);
 
 /**
  * /api/quotes/:id and its transitions. Every handler checks role (router-level) and company (404 from the

@@ -9,7 +9,7 @@
  * `underlay` left out keeps the stored one; `underlay: null` removes it.
  */
 import { z } from "zod";
-import { MAX_PLANES, planeSchema, stackSchema, takeoffInputSchema } from "./takeoff";
+import { MAX_ID_LENGTH, MAX_PLANES, MAX_STACKS, planeSchema, stackSchema, takeoffInputSchema } from "./takeoff";
 
 /**
  * A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file);
@@ -40,8 +40,11 @@ export const roofDocumentShape = {
     .array(planeSchema, { error: "Required" })
     .min(1, "Add at least one roof plane")
     .max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
-  stacks: z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly"),
-  defaultStackId: z.string({ error: "Required" }).min(1, "Required"),
+  stacks: z
+    .array(stackSchema, { error: "Required" })
+    .min(1, "Add at least one roof assembly")
+    .max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
+  defaultStackId: z.string({ error: "Required" }).min(1, "Required").max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`),
 };
 
 /**

@@ -12,6 +12,19 @@ import { planeGeometry, isGeometryError } from "../engine/roof/geometry";
 
 export { EDGE_TYPES };
 export const MAX_PLANES = 500;
+/** Roof assemblies per roof: far more than any roof has, small enough to keep a body and a PDF bounded. */
+export const MAX_STACKS = 50;
+/**
+ * Plan coordinates within ±MAX_PLAN_FT of the origin. The engine lays out every panel and batten course, so
+ * a plane thousands of feet across (or a panel or batten spacing of a fraction of an inch) would make
+ * millions of them: these bounds, far beyond any house, keep one request from exhausting the server.
+ */
+export const MAX_PLAN_FT = 1_000;
+/** Narrowest panel coverage and closest batten spacing accepted, inches. */
+export const MIN_PANEL_COVERAGE_IN = 6;
+export const MIN_BATTEN_SPACING_IN = 6;
+/** Longest plane, assembly or penetration id. */
+export const MAX_ID_LENGTH = 100;
 export const ATTIC_TYPES = ["vented", "unvented", "cathedral"] as const;
 export const CODE_EDITIONS = [2012, 2015, 2018, 2021, 2024] as const;
 export const UNDERLAYMENT_KINDS = ["self-adhered", "synthetic", "felt"] as const;
@@ -22,12 +35,17 @@ export const PANEL_STARTS = ["left", "right", "centred"] as const;
 export const PENETRATION_KINDS = ["pipe", "chimney", "skylight", "vent", "other"] as const;
 export const CLIMATE_ZONE_RE = /^[1-8][ABC]?$/;
 
-const id = z.string({ error: "Required" }).min(1, "Required");
+const id = z.string({ error: "Required" }).min(1, "Required").max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`);
 const size = z.number({ error: "Enter a number" }).min(0, "Must not be negative");
 const positive = z.number({ error: "Enter a number" }).positive("Must be more than 0");
 const pct = z.number({ error: "Enter a number" }).min(0, "Must not be negative").max(100, "At most 100");
 const fraction = z.number({ error: "Enter a number" }).min(0).max(1);
 const emittance = z.number({ error: "Enter a number" }).min(0.01, "At least 0.01").max(1, "At most 1");
+/** Stock pieces (battens, trim, panels) are at least a foot long. */
+const stockLength = z.number({ error: "Enter a number" }).min(1, "At least 1 ft");
+const fastenerSpacing = z.number({ error: "Enter a number" }).min(1, "At least 1 in");
+const battenSpacing = z.number({ error: "Enter a number" }).min(MIN_BATTEN_SPACING_IN, `At least ${MIN_BATTEN_SPACING_IN} in`);
+const planFt = z.number({ error: "Enter a number" }).min(-MAX_PLAN_FT, `At least -${MAX_PLAN_FT} ft`).max(MAX_PLAN_FT, `At most ${MAX_PLAN_FT} ft`);
 
 // ---------------------------------------------------------------------------------------------------
 // rules
@@ -85,18 +103,19 @@ export const rulesSchema = z
     foil: roll({ rollWidthIn: 48, rollLengthFt: 125, sideLapIn: 2, endLapIn: 6 }),
     battens: z
       .object({
-        stockLengthFt: positive.default(8),
-        fastenerSpacingIn: positive.default(24),
-        counterBattenSpacingIn: positive.default(24),
+        stockLengthFt: stockLength.default(8),
+        fastenerSpacingIn: fastenerSpacing.default(24),
+        counterBattenSpacingIn: battenSpacing.default(24),
       })
       .prefault({}),
     trim: z
       .object({
-        stockLengthFt: positive.default(10),
+        stockLengthFt: stockLength.default(10),
         endLapIn: size.default(3),
-        fastenerSpacingIn: positive.default(12),
+        fastenerSpacingIn: fastenerSpacing.default(12),
       })
-      .prefault({}),
+      .prefault({})
+      .refine((t) => t.endLapIn / 12 < t.stockLengthFt, { message: "The end lap must be shorter than the stock length", path: ["endLapIn"] }),
     sealant: z
       .object({
         /** Linear feet of bead per tube [common practice]. */
@@ -119,7 +138,7 @@ export const rulesSchema = z
       .prefault({}),
     panels: z
       .object({
-        maxLengthFt: positive.default(40),
+        maxLengthFt: stockLength.default(40),
         longPanelInfoFt: positive.default(30),
         hemAllowanceIn: size.default(0),
       })
@@ -165,6 +184,7 @@ export const siteSchema = z
       .trim()
       .toUpperCase()
       .regex(CLIMATE_ZONE_RE, 'Use an IECC climate zone such as "3A"')
+      .max(2, 'Use an IECC climate zone such as "3A"')
       .optional(),
     /** Ice-dam risk stated for the site (IRC R905.1.2 areas). Unknown when left out. */
     iceDamRisk: z.boolean().optional(),
@@ -193,7 +213,7 @@ export const siteSchema = z
 // ---------------------------------------------------------------------------------------------------
 
 export const penetrationSchema = z.object({
-  id: z.string().optional(),
+  id: z.string().max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`).optional(),
   kind: z.enum(PENETRATION_KINDS).default("pipe"),
   /** Pipe outside diameter, inches. */
   diameterIn: size.optional(),
@@ -204,14 +224,16 @@ export const penetrationSchema = z.object({
   count: z.number().int().min(1).default(1),
 });
 
-const edgeTypeOverrides = z.record(z.string().regex(/^\d+$/, "Edge numbers are whole numbers"), z.enum(EDGE_TYPES));
+const edgeTypeOverrides = z
+  .record(z.string().regex(/^\d+$/, "Edge numbers are whole numbers"), z.enum(EDGE_TYPES))
+  .refine((r) => Object.keys(r).length <= 200, { message: "At most 200 edges" }); // a plane has at most 200 corners
 
 export const planeSchema = z.object({
   id,
   name: z.string().max(120).default(""),
   pitch: z.number({ error: "Enter a number" }).min(0, "Pitch must be 0 or more").max(24, "Pitch must be at most 24"),
   outline: z
-    .array(z.tuple([z.number({ error: "Enter a number" }), z.number({ error: "Enter a number" })]), { error: "Required" })
+    .array(z.tuple([planFt, planFt]), { error: "Required" })
     .min(3, "A plane needs at least 3 corners")
     .max(200, "At most 200 corners"),
   eaveEdge: z.number({ error: "Enter a number" }).int("Must be a whole number").min(0, "Must be 0 or more"),
@@ -230,11 +252,11 @@ export const planeSchema = z.object({
 const battensSchema = z
   .object({
     nominal: z.enum(LUMBER_NOMINALS).default("1x4"),
-    spacingIn: positive.default(24),
+    spacingIn: battenSpacing.default(24),
     counterBattens: z.boolean().default(false),
     counterBattenNominal: z.enum(LUMBER_NOMINALS).optional(),
     /** Default: rules.battens.counterBattenSpacingIn (24 in). */
-    counterBattenSpacingIn: positive.optional(),
+    counterBattenSpacingIn: battenSpacing.optional(),
     /** Preservative-treated lumber. */
     treated: z.boolean().default(false),
   })
@@ -281,7 +303,11 @@ export const stackSchema = z.object({
   panel: z
     .object({
       system: z.enum(PANEL_SYSTEMS).default("standing-seam"),
-      coverageWidthIn: positive.max(60, "At most 60 in").default(16),
+      coverageWidthIn: z
+        .number({ error: "Enter a number" })
+        .min(MIN_PANEL_COVERAGE_IN, `At least ${MIN_PANEL_COVERAGE_IN} in`)
+        .max(60, "At most 60 in")
+        .default(16),
       gauge: z.number({ error: "Enter a number" }).positive().default(24),
       /** Metallic-coated steel (the default) or another metal; treated lumber is checked against steel. */
       substrate: z.enum(["metallic-coated-steel", "aluminum", "copper", "zinc"]).default("metallic-coated-steel"),
@@ -293,7 +319,7 @@ export const stackSchema = z.object({
       clipSpacingIn: z.object({ field: positive.optional(), edge: positive.optional(), corner: positive.optional() }).prefault({}),
       screwsPerSquare: z.object({ field: size.optional(), edge: size.optional(), corner: size.optional() }).prefault({}),
       hemAllowanceIn: size.optional(),
-      maxLengthFt: positive.optional(),
+      maxLengthFt: stockLength.optional(),
       start: z.enum(PANEL_STARTS).default("left"),
     })
     .prefault({}),
@@ -318,7 +344,10 @@ export const stackSchema = z.object({
 const baseShape = {
   site: siteSchema,
   planes: z.array(planeSchema, { error: "Required" }).min(1, "Add at least one roof plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
-  stacks: z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly"),
+  stacks: z
+    .array(stackSchema, { error: "Required" })
+    .min(1, "Add at least one roof assembly")
+    .max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
   defaultStackId: id,
   rules: rulesSchema,
 };
@@ -370,7 +399,7 @@ export type StackInput = TakeoffInput["stacks"][number];
 export type SiteInput = TakeoffInput["site"];
 
 export const gapStudyInputSchema = z
-  .object({ ...baseShape, planeIds: z.array(id, { error: "Required" }).min(1, "Choose at least one plane") })
+  .object({ ...baseShape, planeIds: z.array(id, { error: "Required" }).min(1, "Choose at least one plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`) })
   .superRefine((v, ctx) => {
     checkInput(v, ctx);
     const known = new Set(v.planes.map((p) => p.id));

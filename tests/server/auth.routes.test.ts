@@ -69,12 +69,15 @@ describe("POST /api/auth/login", () => {
     expect(res.body.error.fields).toEqual({ email: "Enter a valid e-mail address", password: "Required" });
   });
 
-  it("answers a missing body with 400 and a message", async () => {
+  it("answers a missing body with 400 and a body that is not JSON with 415, each with a message", async () => {
     const agent = request.agent(createTestApp());
     const csrf4 = await csrfFor(agent);
-    const res = await agent.post("/api/auth/login").set("X-CSRF-Token", csrf4).set("Content-Type", "text/plain").send("hello");
-    expect(res.status).toBe(400);
-    expect(res.body.error.message).toMatch(/JSON body/);
+    const none = await agent.post("/api/auth/login").set("X-CSRF-Token", csrf4);
+    expect(none.status).toBe(400);
+    expect(none.body.error.message).toMatch(/JSON body/);
+    const text = await agent.post("/api/auth/login").set("X-CSRF-Token", csrf4).set("Content-Type", "text/plain").send("hello");
+    expect(text.status).toBe(415); // RFC 9110 15.5.16: the content type is not one the route accepts
+    expect(text.body.error.message).toMatch(/JSON/);
   });
 
   it("refuses a request without the CSRF token with 403", async () => {

@@ -547,7 +547,12 @@ function send(client: Client, method: string, req: Req, csrf = true) {
 async function clientFor(w: World, row: Row, actor: Actor): Promise<Client> {
   const kind = row.client ?? "shared";
   if (kind === "shared") return w.actors[actor];
-  if (kind === "clone") return cloneClient(createTestApp({}, { payments: await testPayments() }), actor, w);
+  if (kind === "clone") {
+    // Rate-limit counts live in the database and are shared by every app (as by every server process):
+    // a new app no longer starts from zero, so clear them; this matrix checks access, not limits.
+    await testSequelize().query("DELETE FROM rate_limit_hits");
+    return cloneClient(createTestApp({}, { payments: await testPayments() }), actor, w);
+  }
   // newUser: same role and company as the actor (crew assignment does not matter on these routes)
   if (actor === "anon") return anonClient(w.app);
   const base = w.actors[actor].user!;

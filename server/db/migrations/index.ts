@@ -25,6 +25,7 @@ import * as ps1 from "./20261201600001-create-proposals";
 import * as ps2 from "./20261201600002-create-payments";
 import * as ps3 from "./20261201600003-create-payment-events";
 import * as ps4 from "./20261201600004-create-revision-pdfs";
+import * as g1 from "./20261201700001-create-rate-limit-hits";
 
 interface Migration {
   name: string;
@@ -60,4 +61,5 @@ export const migrations: Migration[] = [
   { name: "20261201600002-create-payments", ...ps2 },
   { name: "20261201600003-create-payment-events", ...ps3 },
   { name: "20261201600004-create-revision-pdfs", ...ps4 },
+  { name: "20261201700001-create-rate-limit-hits", ...g1 },
 ];
