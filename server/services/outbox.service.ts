@@ -129,6 +129,12 @@ export interface OutboxRunResult {
   recovered: number;
 }
 
+/** A one-time link's secret part: a proposal link (`/p/<token>`) or a password-reset link (`?token=<token>`). */
+const LINK_TOKEN = /(\/p\/|[?&](?:amp;)?token=)[A-Za-z0-9_-]{20,}/g;
+
+/** The text with every one-time link token replaced, for the copy of an e-mail kept after it was delivered. */
+export const withoutLinkTokens = (s: string): string => s.replace(LINK_TOKEN, "$1[removed after delivery]");
+
 export class OutboxWorker {
   readonly id: string;
   private readonly pollMs: number;
@@ -307,7 +313,15 @@ export class OutboxWorker {
       return failed ? "failed" : "retried";
     }
     const [updated] = await OutboxMessage.update(
-      { status: "sent", attempts: row.attempts + 1, sentAt: new Date(), messageId: messageId.slice(0, 255) },
+      {
+        status: "sent",
+        attempts: row.attempts + 1,
+        sentAt: new Date(),
+        messageId: messageId.slice(0, 255),
+        // The sent copy keeps everything but the one-time links: only their hashes are stored elsewhere.
+        text: withoutLinkTokens(row.text),
+        html: withoutLinkTokens(row.html),
+      },
       guard,
     );
     if (updated === 0) {

@@ -139,6 +139,33 @@ describe("OutboxWorker", () => {
     expect(sent.claimedBy).toBe(worker.id);
   });
 
+  it("keeps no one-time link token in the row once the e-mail is delivered (the homeowner's copy has it)", async () => {
+    const catcher = await startTestMailCatcher();
+    const worker = testOutboxWorker({ pollMs: 200 });
+    worker.start();
+    cleanups.push(() => worker.stop());
+    const proposal = randomBytes(32).toString("base64url");
+    const reset = randomBytes(32).toString("base64url");
+    const row = await enqueue(
+      message("Links", {
+        text: `Open https://roofs.example.com/p/${proposal} or https://roofs.example.com/reset-password?token=${reset}`,
+        html: `<a href="https://roofs.example.com/p/${proposal}">open</a> <a href="/reset-password?token=${reset}">reset</a>`,
+      }),
+    );
+    expect((await reload(row.id)).text).toContain(proposal); // kept until delivered: a retry needs it
+    const caught = await catcher.waitFor((m) => m.subject === "Links", 5_000);
+    expect(caught.text).toContain(`/p/${proposal}`);
+    expect(caught.html).toContain(`token=${reset}`);
+    await expect.poll(async () => (await reload(row.id)).status, { timeout: 3_000 }).toBe("sent");
+    const sent = await reload(row.id);
+    for (const body of [sent.text, sent.html]) {
+      expect(body).not.toContain(proposal);
+      expect(body).not.toContain(reset);
+      expect(body).toContain("[removed after delivery]");
+    }
+    expect(sent.text).toContain("https://roofs.example.com/p/[removed after delivery]");
+  });
+
   it("keeps the e-mail pending while SMTP is down, then delivers it exactly once when it is back", async () => {
     const first = await ownCatcher();
     const port = first.port;
