@@ -1,4 +1,4 @@
-import { UniqueConstraintError, literal, type Sequelize, type Transaction } from "sequelize";
+import { QueryTypes, UniqueConstraintError, literal, type Sequelize, type Transaction } from "sequelize";
 import type { RoofDocument, RoofDto, RoofSave } from "../../shared/schemas/roof";
 import { Roof } from "../models/index";
 import { conflict } from "../errors";
@@ -86,9 +86,12 @@ export class RoofsService {
       await Roof.create({ jobId, companyId: actor.companyId, version: 1, document, takeoff }, { transaction });
       version = 1;
     } else {
-      const [affected] = await Roof.update(
-        { document, takeoff, version: this.sequelize.literal("version + 1") as unknown as number },
-        { where: { jobId, version: input.version }, transaction },
+      // One plain UPDATE, guarded by the version read above (the job row lock already serialises saves).
+      const affected = Number(
+        await this.sequelize.query(
+          "UPDATE roofs SET document = ?, takeoff = ?, version = version + 1, updated_at = ? WHERE job_id = ? AND version = ?",
+          { replacements: [JSON.stringify(document), JSON.stringify(takeoff), new Date(), jobId, input.version], type: QueryTypes.BULKUPDATE, transaction },
+        ),
       );
       if (affected !== 1) {
         const current = await Roof.findOne({ where: { jobId }, attributes: ["version"], transaction });
