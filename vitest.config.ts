@@ -37,6 +37,21 @@ export default defineConfig({
         },
       },
       {
+        resolve,
+        test: {
+          // Fault drills: they stop MariaDB, the mail catcher and servers, so they run alone (npm test runs
+          // them last, by themselves) on a MariaDB of their own (tests/faults/global-setup.ts).
+          name: "faults",
+          environment: "node",
+          include: ["tests/faults/**/*.test.ts"],
+          fileParallelism: false,
+          globalSetup: ["tests/faults/global-setup.ts"],
+          setupFiles: ["tests/faults/setup.ts"],
+          testTimeout: 240_000,
+          hookTimeout: 120_000,
+        },
+      },
+      {
         plugins: [react()],
         resolve,
         test: {
