@@ -38,7 +38,7 @@ process.env.NODE_ENV ??= "development";
 const JOBS = 10_000;
 const CUSTOMERS = 2_000;
 const ROOFED = 600;
-const CONNECTIONS = 20;
+const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 20);
 const DURATION_S = Number(process.env.BENCH_SECONDS ?? 10);
 const PASSWORD = "bench-only-password";
 
