@@ -1,11 +1,11 @@
 /** Number formatting for `basis` strings: fixed decimals, thousands separators, no locale dependence. */
 export function fmt(n: number, digits = 1): string {
-  const neg = n < 0;
   const s = Math.abs(n).toFixed(digits);
-  const [int, dec] = s.split(".");
-  const withSep = int.replace(/\B(?=(\d{3})+(?!\d))/g, ",");
-  const trimmed = dec ? `${withSep}.${dec}` : withSep;
-  return (neg ? "-" : "") + trimmed;
+  const dot = s.indexOf(".");
+  const intLen = dot < 0 ? s.length : dot;
+  // Most figures are under 1,000: no separator to insert.
+  const body = intLen <= 3 ? s : s.slice(0, intLen).replace(/\B(?=(\d{3})+(?!\d))/g, ",") + s.slice(intLen);
+  return n < 0 ? "-" + body : body;
 }
 
 /** Up to `digits` decimals, trailing zeros dropped (12 → "12", 3.5 → "3.5"). */
