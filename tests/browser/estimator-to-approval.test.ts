@@ -1,8 +1,10 @@
 /**
  * The estimator-to-approval journey against the real built client and server: a new job with a new
  * customer, a hip roof from a quick shape plus a lean-to wing drawn corner by corner on the plan, a layer
- * stack with a mesh mat and foil on the deck, the stored takeoff, a quote submitted for approval, and the
- * owner approving it. Every step leaves a screenshot under test-results/screenshots/estimator-to-approval/.
+ * stack with a mesh mat and foil on the deck, the stored takeoff, a quote submitted for approval, the owner
+ * returning it with a comment, the estimator revising it (a manual line for the disposal) and submitting it
+ * again, and the owner approving the revised quote. Every step leaves a screenshot under
+ * test-results/screenshots/estimator-to-approval/.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, Locator, Page } from "playwright-core";
@@ -11,6 +13,9 @@ import { launchBrowser, newPage, shot, signIn } from "./browser";
 const JOURNEY = "estimator-to-approval";
 const CUSTOMER = "Imogen Farrowdale";
 const CUSTOMER_EMAIL = "imogen.farrowdale@example.com";
+const RETURN_COMMENT = "Tear-off disposal is not priced: add the dumpster and haul-away as a line, then send it back.";
+const DISPOSAL_LINE = "Dumpster and haul-away, 20 yd";
+const DISPOSAL_PRICE = 650; // dollars, not taxable: the total rises by exactly this much
 
 let browser: Browser;
 beforeAll(async () => {
@@ -25,6 +30,8 @@ const valueBeside = (list: Locator, label: string) =>
   list.locator("dt", { hasText: new RegExp(`^${label}$`) }).locator("xpath=following-sibling::dd[1]");
 
 const numberIn = (text: string | null) => Number((text ?? "").replace(/[^0-9.]/g, ""));
+
+const escapeRegExp = (text: string) => text.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
 
 /**
  * The drawing's feet → page px mapping, read off the plan as a person would: the hip roof was placed
@@ -48,8 +55,8 @@ async function planToPage(page: Page, hip: { widthFt: number; depthFt: number })
   return { scale, at: (x: number, y: number) => ({ x: box.left + x * scale, y: box.bottom - y * scale }) };
 }
 
-describe("an estimator prices a job and the owner approves it", () => {
-  it("goes from a new job to an approved quote", async () => {
+describe("an estimator prices a job, the owner returns it, and approves the revision", () => {
+  it("goes from a new job to a returned, revised and approved quote", async () => {
     // ---- 1. the estimator creates a job for a new customer ------------------------------------------
     const page = await newPage(browser);
     await signIn(page, "estimator@example.com");
@@ -233,40 +240,127 @@ describe("an estimator prices a job and the owner approves it", () => {
     await shot(page, JOURNEY, "11-submitted");
     await page.context().close();
 
-    // ---- 6. the owner approves it ------------------------------------------------------------------
+    // ---- 6. the owner returns it to the estimator with a comment -----------------------------------
     const owner = await newPage(browser);
     await signIn(owner, "owner@example.com");
-    await owner.getByRole("navigation", { name: /main/i }).getByRole("link", { name: "Approvals" }).click();
+    const ownerNav = owner.getByRole("navigation", { name: /main/i });
+    await ownerNav.getByRole("link", { name: "Approvals" }).click();
     const queue = owner.getByRole("table", { name: "Quotes waiting for approval" });
     const row = queue.getByRole("row").filter({ hasText: CUSTOMER });
     await row.waitFor();
-    await shot(owner, JOURNEY, "12-approvals-queue");
     await row.getByRole("link", { name: quoteNumber }).click();
     await owner.waitForURL(/\/approvals\/\d+$/);
     await owner.getByRole("heading", { level: 1, name: new RegExp(`Review ${quoteNumber}`) }).waitFor();
     await owner.getByText(`${CUSTOMER} · 21 Larkspur Hollow, Brackenfield ·`).waitFor();
-    await owner.getByRole("table", { name: "Options compared" }).getByRole("row", { name: /^Total\b/ }).waitFor();
+    // the figures the estimator submitted
+    await expect
+      .poll(async () => numberIn(/\$[\d,.]+/.exec(await owner.getByRole("table", { name: "Options compared" }).getByRole("row", { name: /^Total\b/ }).innerText())?.[0] ?? null))
+      .toBeCloseTo(total, 2);
+    const returnForm = owner.getByRole("form", { name: "Return to the estimator" });
+    await returnForm.getByLabel("What should change? (required)").fill(RETURN_COMMENT);
+    await shot(owner, JOURNEY, "12-return-comment");
+    await returnForm.getByRole("button", { name: "Return with comment" }).click();
+    await owner.waitForURL(/\/approvals$/);
+    await owner.getByText(`${quoteNumber} returned to the estimator.`).waitFor();
+    // back with the estimator: the queue no longer lists it
+    await expect.poll(() => owner.getByRole("row").filter({ hasText: CUSTOMER }).count()).toBe(0);
+    await shot(owner, JOURNEY, "13-returned");
+    await owner.context().close();
 
-    const approveForm = owner.getByRole("form", { name: "Approve" });
+    // ---- 7. the estimator reads the comment, adds the disposal line and submits again --------------
+    const estimator = await newPage(browser);
+    await signIn(estimator, "estimator@example.com");
+    await estimator.getByRole("navigation", { name: /main/i }).getByRole("link", { name: "Jobs" }).click();
+    await estimator.getByRole("searchbox", { name: "Search jobs" }).fill(CUSTOMER);
+    await estimator.getByRole("table", { name: "Jobs" }).getByRole("link", { name: CUSTOMER }).click();
+    await estimator.waitForURL(new RegExp(`/jobs/${jobId}/site$`));
+    await estimator.getByRole("navigation", { name: "Job sections" }).getByRole("link", { name: "Pricing" }).click();
+    await estimator.waitForURL(new RegExp(`/jobs/${jobId}/pricing`));
+    const estQuoteTabs = estimator.getByRole("navigation", { name: "Quotes of this job" });
+    const estQuoteTab = estQuoteTabs.getByRole("button", { name: new RegExp(`^${escapeRegExp(quoteNumber)}\\b`) });
+    await estQuoteTab.getByText("Draft", { exact: true }).waitFor();
+    // the owner's comment, word for word, above the draft
+    const returned = estimator.getByRole("status").filter({ hasText: /^Returned by / });
+    await returned.waitFor();
+    await expect.poll(() => returned.innerText()).toContain(`“${RETURN_COMMENT}”`);
+    await estimator.getByText(`“${RETURN_COMMENT}”`).waitFor();
+    const draft = estimator.getByRole("form", { name: "Edit draft" });
+    await draft.waitFor();
+    await shot(estimator, JOURNEY, "14-returned-draft");
+
+    const manual = draft.getByRole("region", { name: "Manual lines" });
+    await manual.getByRole("button", { name: "Add manual line" }).click();
+    await manual.getByLabel("Description").fill(DISPOSAL_LINE);
+    await manual.getByLabel("Qty").fill("1");
+    await manual.getByLabel("Unit price ($)").fill(String(DISPOSAL_PRICE));
+    await manual.getByLabel("Unit cost ($)").fill("480");
+    await expect.poll(() => manual.getByLabel("Taxable").isChecked()).toBe(false);
+    await draft.getByText("Unsaved changes: the figures above update when you save.").waitFor();
+    // nothing goes to the owner while the edit is unsaved
+    expect(await estimator.getByRole("button", { name: "Submit for approval" }).isDisabled()).toBe(true);
+    await shot(estimator, JOURNEY, "15-revision-typed");
+    await draft.getByRole("button", { name: "Save draft" }).click();
+    await estimator.getByText("Draft saved and re-priced.").waitFor();
+
+    const estOptions = estimator.getByRole("table", { name: "Options compared" });
+    const estTotalRow = estOptions.getByRole("row", { name: /^Total\b/ });
+    // the disposal line is sold at its own price and not taxed: the total rises by exactly that
+    await expect
+      .poll(async () => numberIn(/\$[\d,.]+/.exec(await estTotalRow.innerText())?.[0] ?? null))
+      .toBeCloseTo(total + DISPOSAL_PRICE, 2);
+    const revisedTotal = numberIn(/\$[\d,.]+/.exec(await estTotalRow.innerText())![0]);
+    await estOptions.getByRole("row", { name: /^Manual lines cost\b/ }).getByText("$480.00").waitFor();
+    await estimator.getByText("Unsaved changes: the figures above update when you save.").waitFor({ state: "detached" });
+    await shot(estimator, JOURNEY, "16-revision-saved");
+
+    await estimator.getByRole("button", { name: "Submit for approval" }).click();
+    await estimator.getByText("Waiting for the owner's review").waitFor();
+    await estQuoteTab.getByText("In review", { exact: true }).waitFor();
+    await shot(estimator, JOURNEY, "17-resubmitted");
+    await estimator.context().close();
+
+    // ---- 8. the owner approves the revised quote ---------------------------------------------------
+    const approver = await newPage(browser);
+    await signIn(approver, "owner@example.com");
+    await approver.getByRole("navigation", { name: /main/i }).getByRole("link", { name: "Approvals" }).click();
+    const queueAgain = approver.getByRole("table", { name: "Quotes waiting for approval" });
+    const rowAgain = queueAgain.getByRole("row").filter({ hasText: CUSTOMER });
+    await rowAgain.waitFor();
+    await shot(approver, JOURNEY, "18-approvals-queue");
+    await rowAgain.getByRole("link", { name: quoteNumber }).click();
+    await approver.waitForURL(/\/approvals\/\d+$/);
+    await approver.getByRole("heading", { level: 1, name: new RegExp(`Review ${quoteNumber}`) }).waitFor();
+    await approver.getByText(`${CUSTOMER} · 21 Larkspur Hollow, Brackenfield ·`).waitFor();
+    // the review shows the revised figures: the new total and the disposal line
+    const reviewTotal = approver.getByRole("table", { name: "Options compared" }).getByRole("row", { name: /^Total\b/ });
+    await expect.poll(async () => numberIn(/\$[\d,.]+/.exec(await reviewTotal.innerText())?.[0] ?? null)).toBeCloseTo(revisedTotal, 2);
+    await approver.locator("summary", { hasText: /^\W*Option A · / }).click(); // unfold the option's line items
+    await approver
+      .getByRole("table", { name: "Lines of option A" })
+      .getByRole("row", { name: new RegExp(DISPOSAL_LINE) })
+      .getByText("$650.00")
+      .waitFor();
+
+    const approveForm = approver.getByRole("form", { name: "Approve" });
     const required = approveForm.getByLabel("Reason for approving (required)");
     if (await required.count()) {
       await required.fill("Mesh and foil option reviewed with the homeowner; margin accepted for this job.");
     }
-    await shot(owner, JOURNEY, "13-review");
+    await shot(approver, JOURNEY, "19-review");
     await approveForm.getByRole("button", { name: `Approve ${quoteNumber}` }).click();
-    await owner.waitForURL(/\/approvals$/);
-    await owner.getByText(`${quoteNumber} approved.`).waitFor();
-    await expect.poll(() => owner.getByRole("row").filter({ hasText: CUSTOMER }).count()).toBe(0);
+    await approver.waitForURL(/\/approvals$/);
+    await approver.getByText(`${quoteNumber} approved.`).waitFor();
+    await expect.poll(() => approver.getByRole("row").filter({ hasText: CUSTOMER }).count()).toBe(0);
 
     // the job's Pricing section shows the quote approved
-    await owner.getByRole("navigation", { name: /main/i }).getByRole("link", { name: "Jobs" }).click();
-    await owner.getByRole("searchbox", { name: "Search jobs" }).fill(CUSTOMER);
-    await owner.getByRole("table", { name: "Jobs" }).getByRole("link", { name: CUSTOMER }).click();
-    await owner.waitForURL(new RegExp(`/jobs/${jobId}/site$`));
-    await owner.getByRole("navigation", { name: "Job sections" }).getByRole("link", { name: "Pricing" }).click();
-    await owner.getByText(/^Approved by .+ on /).waitFor();
-    await owner.getByRole("navigation", { name: "Quotes of this job" }).getByText("Approved").waitFor();
-    await shot(owner, JOURNEY, "14-approved");
-    await owner.context().close();
+    await approver.getByRole("navigation", { name: /main/i }).getByRole("link", { name: "Jobs" }).click();
+    await approver.getByRole("searchbox", { name: "Search jobs" }).fill(CUSTOMER);
+    await approver.getByRole("table", { name: "Jobs" }).getByRole("link", { name: CUSTOMER }).click();
+    await approver.waitForURL(new RegExp(`/jobs/${jobId}/site$`));
+    await approver.getByRole("navigation", { name: "Job sections" }).getByRole("link", { name: "Pricing" }).click();
+    await approver.getByText(/^Approved by .+ on /).waitFor();
+    await approver.getByRole("navigation", { name: "Quotes of this job" }).getByText("Approved").waitFor();
+    await shot(approver, JOURNEY, "20-approved");
+    await approver.context().close();
   });
 });
