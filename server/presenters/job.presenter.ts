@@ -43,24 +43,43 @@ export function presentJob(job: Job, role: Role): JobDto {
   return withPrices(dto, job, role);
 }
 
-/** A row of the jobs board (JobsService.list). */
+/** A row of the jobs board (JobsService.list; times already ISO text). Crew rows have no price key at all. */
 export function presentJobListItem(job: JobListRow, role: Role): JobListItem {
-  const dto = {
+  const estimator = job.estimatorId !== null && job.estimatorName !== null ? { id: job.estimatorId, name: job.estimatorName } : null;
+  const customer = { id: job.customerId, name: job.customerName };
+  if (canSeePricing(role)) {
+    return {
+      id: job.id,
+      status: job.status,
+      customerId: job.customerId,
+      customer,
+      siteAddressLine1: job.siteAddressLine1,
+      siteCity: job.siteCity,
+      estimatorId: job.estimatorId,
+      estimator,
+      squares: job.squares,
+      proposal: job.proposalProgress,
+      archivedAt: job.archivedAt,
+      createdAt: job.createdAt,
+      updatedAt: job.updatedAt,
+      quoteTotalCents: job.quoteTotalCents,
+    };
+  }
+  return {
     id: job.id,
     status: job.status,
     customerId: job.customerId,
-    customer: { id: job.customerId, name: job.customerName },
+    customer,
     siteAddressLine1: job.siteAddressLine1,
     siteCity: job.siteCity,
     estimatorId: job.estimatorId,
-    estimator: job.estimatorId !== null && job.estimatorName !== null ? { id: job.estimatorId, name: job.estimatorName } : null,
+    estimator,
     squares: job.squares,
     proposal: job.proposalProgress,
-    archivedAt: iso(job.archivedAt),
-    createdAt: job.createdAt.toISOString(),
-    updatedAt: job.updatedAt.toISOString(),
+    archivedAt: job.archivedAt,
+    createdAt: job.createdAt,
+    updatedAt: job.updatedAt,
   };
-  return canSeePricing(role) ? { ...dto, quoteTotalCents: job.quoteTotalCents } : dto;
 }
 
 export { json as parseJsonColumn };

@@ -42,7 +42,13 @@ function orderSql(sort: JobSort): string {
   return SORTS[key](desc ? "DESC" : "ASC");
 }
 
-/** A row of the jobs board as the list query returns it. */
+/**
+ * A DATETIME column as the API's ISO 8601 text, formatted by the database: the columns hold UTC (the connection's
+ * time zone is +00:00) to the second, so this is exactly `Date#toISOString()` without a Date made per value.
+ */
+const iso = (column: string) => `DATE_FORMAT(${column}, '%Y-%m-%dT%H:%i:%s.000Z')`;
+
+/** A row of the jobs board as the list query returns it (times as ISO 8601 text). */
 export interface JobListRow {
   id: number;
   status: JobStatus;
@@ -54,24 +60,22 @@ export interface JobListRow {
   estimatorName: string | null;
   squares: number | null;
   quoteTotalCents: number | null;
-  archivedAt: Date | null;
-  createdAt: Date;
-  updatedAt: Date;
+  archivedAt: string | null;
+  createdAt: string;
+  updatedAt: string;
   proposalProgress: JobProposalProgress | null;
 }
 
 interface JobListSqlRow extends Omit<JobListRow, "proposalProgress"> {
   proposalStatus: JobProposalProgress["status"] | null;
-  proposalSentAt: Date | null;
-  proposalViewedAt: Date | null;
-  proposalAcceptedAt: Date | null;
-  proposalDeclinedAt: Date | null;
+  proposalSentAt: string | null;
+  proposalViewedAt: string | null;
+  proposalAcceptedAt: string | null;
+  proposalDeclinedAt: string | null;
   depositStatus: JobProposalProgress["depositStatus"];
 }
 
-const isoOrNull = (d: Date | string | null) => (d === null ? null : new Date(d).toISOString());
 const numOrNull = (v: unknown) => (v === null || v === undefined ? null : Number(v));
-const asDate = (d: Date | string) => (d instanceof Date ? d : new Date(d));
 
 function toJobListRow(r: JobListSqlRow): JobListRow {
   return {
@@ -85,18 +89,18 @@ function toJobListRow(r: JobListSqlRow): JobListRow {
     estimatorName: r.estimatorName,
     squares: numOrNull(r.squares),
     quoteTotalCents: numOrNull(r.quoteTotalCents),
-    archivedAt: r.archivedAt === null ? null : asDate(r.archivedAt),
-    createdAt: asDate(r.createdAt),
-    updatedAt: asDate(r.updatedAt),
+    archivedAt: r.archivedAt,
+    createdAt: r.createdAt,
+    updatedAt: r.updatedAt,
     proposalProgress:
       r.proposalStatus === null
         ? null
         : {
             status: r.proposalStatus,
-            sentAt: isoOrNull(r.proposalSentAt)!,
-            viewedAt: isoOrNull(r.proposalViewedAt),
-            acceptedAt: isoOrNull(r.proposalAcceptedAt),
-            declinedAt: isoOrNull(r.proposalDeclinedAt),
+            sentAt: r.proposalSentAt!,
+            viewedAt: r.proposalViewedAt,
+            acceptedAt: r.proposalAcceptedAt,
+            declinedAt: r.proposalDeclinedAt,
             depositStatus: r.depositStatus ?? null,
           },
   };
@@ -145,16 +149,16 @@ export class JobsService {
     const limit = Number(query.pageSize);
     const offset = (Number(query.page) - 1) * limit;
     const select = { type: QueryTypes.SELECT, raw: true } as const;
-    const [counted, rows] = await Promise.all([
-      this.sequelize.query<{ n: number | string }>(`SELECT COUNT(*) AS n FROM jobs j WHERE ${filter}`, select),
-      this.sequelize.query<JobListSqlRow>(
-        `SELECT j.id, j.status, j.customer_id AS customerId, c.name AS customerName,
+    const countSql = `SELECT COUNT(*) AS n FROM jobs j WHERE ${filter}`;
+    // One statement: the page with the filter's total beside each row (an uncorrelated subquery, run once).
+    const rows = await this.sequelize.query<JobListSqlRow & { total: number | string }>(
+        `SELECT (${countSql}) AS total, j.id, j.status, j.customer_id AS customerId, c.name AS customerName,
                 j.site_address_line1 AS siteAddressLine1, j.site_city AS siteCity,
                 j.estimator_id AS estimatorId, u.name AS estimatorName, j.squares,
-                j.quote_total_cents AS quoteTotalCents, j.archived_at AS archivedAt,
-                j.created_at AS createdAt, j.updated_at AS updatedAt,
-                pr.status AS proposalStatus, pr.created_at AS proposalSentAt, pr.viewed_at AS proposalViewedAt,
-                pr.accepted_at AS proposalAcceptedAt, pr.declined_at AS proposalDeclinedAt,
+                j.quote_total_cents AS quoteTotalCents, ${iso("j.archived_at")} AS archivedAt,
+                ${iso("j.created_at")} AS createdAt, ${iso("j.updated_at")} AS updatedAt,
+                pr.status AS proposalStatus, ${iso("pr.created_at")} AS proposalSentAt, ${iso("pr.viewed_at")} AS proposalViewedAt,
+                ${iso("pr.accepted_at")} AS proposalAcceptedAt, ${iso("pr.declined_at")} AS proposalDeclinedAt,
                 (SELECT pay.status FROM payments pay WHERE pay.proposal_id = pr.id
                   ORDER BY pay.status = 'paid' DESC, pay.id DESC LIMIT 1) AS depositStatus
            FROM (SELECT j.id FROM jobs j${byCustomer ? " JOIN customers c ON c.id = j.customer_id" : ""}
@@ -165,9 +169,10 @@ export class JobsService {
            LEFT JOIN proposals pr ON pr.id = (SELECT MAX(p2.id) FROM proposals p2 WHERE p2.company_id = j.company_id AND p2.job_id = j.id)
           ORDER BY ${order}`,
         select,
-      ),
-    ]);
-    return { rows: rows.map(toJobListRow), count: Number(counted[0]?.n ?? 0) };
+      );
+    // A page past the end has no row to carry the total: count on its own then.
+    const count = rows.length > 0 ? Number(rows[0].total) : Number((await this.sequelize.query<{ n: number | string }>(countSql, select))[0]?.n ?? 0);
+    return { rows: rows.map(toJobListRow), count };
   }
 
   /**

@@ -140,6 +140,16 @@ describe("GET /api/jobs", () => {
     const page3 = await agent.get("/api/jobs?pageSize=2&page=3");
     expect(page3.body.data.map((j: { id: number }) => j.id)).toEqual([jobs[0].id]);
     expect(page3.body.data[0]).toMatchObject({ status: "lead", customer: { id: jobs[0].customerId }, quoteTotalCents: null });
+    // The board's times are the job's own, to the millisecond text (the board formats them in SQL).
+    expect(page3.body.data[0].updatedAt).toBe("2026-01-01T00:00:00.000Z");
+    const detail = (await agent.get(`/api/jobs/${jobs[0].id}`)).body.data;
+    for (const k of ["createdAt", "updatedAt", "archivedAt", "customerId", "estimatorId", "squares", "siteCity"]) {
+      expect(page3.body.data[0][k], k).toEqual(detail[k]);
+    }
+    const past = await agent.get("/api/jobs?pageSize=2&page=9"); // past the end: no rows, the total still right
+    expect(past.body).toEqual({ data: [], meta: { page: 9, pageSize: 2, total: 5 } });
+    const archived = (await agent.get("/api/jobs?archived=1")).body.data[0];
+    expect(archived.archivedAt).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.000Z$/);
   });
 
   it("defaults to 25 a page and refuses a page size outside 1–100 with 400", async () => {
