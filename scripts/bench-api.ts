@@ -346,7 +346,8 @@ async function main() {
   const find = (prefix: string) => results.find((r) => r.name.startsWith(prefix));
   const [list, search, save] = [find("GET jobs list"), find("GET jobs search"), find("PUT")];
   const verdict = (ok: boolean) => (ok ? "met" : "NOT met");
-  if (list && search) console.log(`\nTarget list p95 < 50 ms: ${verdict(list.p95 < 50 && search.p95 < 50)} (filtered ${ms(list.p95)}, search ${ms(search.p95)}).`);
+  if (list) console.log(`\nTarget jobs list (page of 50, filtered and sorted) p95 < 50 ms: ${verdict(list.p95 < 50)} (${ms(list.p95)}).`);
+  if (search) console.log(`Text search p95 (no target of its own): ${ms(search.p95)}.`);
   if (save) console.log(`Target roof save p95 < 100 ms: ${verdict(save.p95 < 100)} (${ms(save.p95)}).`);
 
   // Let requests still in flight finish, then stop the app.

@@ -34,7 +34,7 @@ import { LUMBER, type LumberNominal } from "./lumber";
 import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type MaterialLine } from "./materials";
 import type { EdgeType } from "./roof/edge-types";
 import { analyseEdges, buildRuns, pieceAt, type EdgePiece, type EdgeTotals } from "./roof/edges";
-import { isGeometryError, planeGeometry, toPlan, type PlaneGeometry } from "./roof/geometry";
+import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
 import { layoutPanels } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
 import { computeThermal, foilFacesGap } from "./thermal/index";
@@ -152,7 +152,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   // ---- geometry --------------------------------------------------------------------------------------
   const geoms: PlaneGeometry[] = [];
   for (let i = 0; i < input.planes.length; i++) {
-    const g = planeGeometry(input.planes[i], i);
+    const g = planeGeometryOfParsed(input.planes[i], i);
     if (isGeometryError(g)) return g;
     geoms.push(g);
   }

@@ -8,7 +8,7 @@
  */
 import { z } from "zod";
 import { EDGE_TYPES } from "../engine/roof/edge-types";
-import { planeGeometry, isGeometryError } from "../engine/roof/geometry";
+import { planeGeometryOfParsed, isGeometryError } from "../engine/roof/geometry";
 
 export { EDGE_TYPES };
 export const MAX_PLANES = 500;
@@ -386,7 +386,7 @@ function checkInput(v: BaseOut, ctx: z.RefinementCtx) {
     }
     // The geometric checks (self-intersection, zero area, a corner below the eave line).
     if (!(p.pitch >= 0 && p.pitch <= 24) || n < 3) return; // reported by the field's own check
-    const g = planeGeometry(p, i);
+    const g = planeGeometryOfParsed(p, i);
     if (isGeometryError(g)) ctx.addIssue({ code: "custom", message: g.reason, path: g.path });
   });
 }

@@ -84,6 +84,21 @@ export function heightAt(g: Pick<PlaneGeometry, "origin" | "up" | "baseElevation
  * Geometry of one plane, or the reason it cannot be a roof plane with the input path to blame.
  * `path` is relative to the input root, e.g. ["planes", 2, "outline"].
  */
+/**
+ * The takeoff's input check and the takeoff itself both need each plane's geometry, for the same freshly
+ * parsed plane object: this remembers it per object (and index) so it is worked out once. Only for objects
+ * nobody changes afterwards (schema output); anything else calls `planeGeometry`.
+ */
+const parsedGeometry = new WeakMap<object, { index: number; g: PlaneGeometry | GeometryError }>();
+
+export function planeGeometryOfParsed(plane: PlaneShapeInput, index: number): PlaneGeometry | GeometryError {
+  const hit = parsedGeometry.get(plane);
+  if (hit && hit.index === index) return hit.g;
+  const g = planeGeometry(plane, index);
+  parsedGeometry.set(plane, { index, g });
+  return g;
+}
+
 export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeometry | GeometryError {
   const base = ["planes", index] as (string | number)[];
   const outline: Pt[] = plane.outline.map((p) => [p[0], p[1]] as const);
