@@ -79,7 +79,7 @@ export function jobsRouter(ctx: Pick<AppContext, "sequelize">): Router {
 
   router.put("/:id/roof", office, async (req, res) => {
     const id = jobIdOf(req);
-    await jobs.get(id, req.user!);
+    await jobs.assertVisible(id, req.user!);
     const input = roofSaveSchema.parse(requireBody(req));
     res.json({ data: await roofs.save(id, input, req.user!) });
   });

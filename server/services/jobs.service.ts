@@ -193,6 +193,17 @@ export class JobsService {
     return job;
   }
 
+  /** 404 unless the actor may see the job (as `get`), without loading it: a check before a body is read. */
+  async assertVisible(id: number, actor: Actor): Promise<void> {
+    const crew = actor.role === "crew";
+    const rows = await this.sequelize.query<{ id: number }>(
+      `SELECT j.id FROM jobs j WHERE j.id = ? AND j.company_id = ?` +
+        (crew ? " AND j.archived_at IS NULL AND EXISTS (SELECT 1 FROM job_crew jc WHERE jc.job_id = j.id AND jc.user_id = ?)" : ""),
+      { replacements: crew ? [id, actor.companyId, actor.id] : [id, actor.companyId], type: QueryTypes.SELECT },
+    );
+    if (rows.length === 0) throw notFound("Job");
+  }
+
   /** The job with its customer, estimator and crew, for the presenter. */
   async getDetail(id: number, actor: Actor, transaction?: Transaction): Promise<Job> {
     await this.get(id, actor, transaction);
