@@ -10,8 +10,8 @@ const person = (u: User | null | undefined) => (u ? { id: u.id, name: u.name } :
 const json = <T>(v: unknown): T => (typeof v === "string" ? (JSON.parse(v) as T) : (v as T));
 
 /** The price keys exist only for roles that see prices: for crew the key is left out, not nulled. */
-function withPrices<T extends object>(dto: T, job: Job, role: Role): T & { quoteTotalCents?: number | null } {
-  return canSeePricing(role) ? { ...dto, quoteTotalCents: num(job.quoteTotalCents) } : dto;
+function withPrices<T extends object>(dto: T, quoteTotalCents: number | null, role: Role): T & { quoteTotalCents?: number | null } {
+  return canSeePricing(role) ? { ...dto, quoteTotalCents } : dto;
 }
 
 /** A job with its customer, estimator and crew loaded (JobsService.getDetail). */
@@ -40,46 +40,27 @@ export function presentJob(job: Job, role: Role): JobDto {
     createdAt: job.createdAt.toISOString(),
     updatedAt: job.updatedAt.toISOString(),
   };
-  return withPrices(dto, job, role);
+  return withPrices(dto, num(job.quoteTotalCents), role);
 }
 
-/** A row of the jobs board (JobsService.list; times already ISO text). Crew rows have no price key at all. */
+/** A row of the jobs board (JobsService.list; times already ISO text). */
 export function presentJobListItem(job: JobListRow, role: Role): JobListItem {
-  const estimator = job.estimatorId !== null && job.estimatorName !== null ? { id: job.estimatorId, name: job.estimatorName } : null;
-  const customer = { id: job.customerId, name: job.customerName };
-  if (canSeePricing(role)) {
-    return {
-      id: job.id,
-      status: job.status,
-      customerId: job.customerId,
-      customer,
-      siteAddressLine1: job.siteAddressLine1,
-      siteCity: job.siteCity,
-      estimatorId: job.estimatorId,
-      estimator,
-      squares: job.squares,
-      proposal: job.proposalProgress,
-      archivedAt: job.archivedAt,
-      createdAt: job.createdAt,
-      updatedAt: job.updatedAt,
-      quoteTotalCents: job.quoteTotalCents,
-    };
-  }
-  return {
+  const dto = {
     id: job.id,
     status: job.status,
     customerId: job.customerId,
-    customer,
+    customer: { id: job.customerId, name: job.customerName },
     siteAddressLine1: job.siteAddressLine1,
     siteCity: job.siteCity,
     estimatorId: job.estimatorId,
-    estimator,
+    estimator: job.estimatorId !== null && job.estimatorName !== null ? { id: job.estimatorId, name: job.estimatorName } : null,
     squares: job.squares,
     proposal: job.proposalProgress,
     archivedAt: job.archivedAt,
     createdAt: job.createdAt,
     updatedAt: job.updatedAt,
   };
+  return withPrices(dto, job.quoteTotalCents, role);
 }
 
 export { json as parseJsonColumn };

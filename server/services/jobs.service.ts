@@ -18,7 +18,8 @@ import { recordAudit } from "./audit.service";
 import { CustomersService, likeContains } from "./customers.service";
 import { computeStoredTakeoff, takeoffSquares } from "./roof-takeoff";
 import { parseJsonColumn } from "../presenters/job.presenter";
-import { proposalProgressFor } from "./proposal-progress";
+import { PROGRESS_COLUMNS, PROGRESS_JOIN, progressOf, proposalProgressFor, type ProgressColumns } from "./proposal-progress";
+import { isoText } from "../db/sql";
 
 type Actor = Express.User;
 
@@ -42,12 +43,6 @@ function orderSql(sort: JobSort): string {
   return SORTS[key](desc ? "DESC" : "ASC");
 }
 
-/**
- * A DATETIME column as the API's ISO 8601 text, formatted by the database: the columns hold UTC (the connection's
- * time zone is +00:00) to the second, so this is exactly `Date#toISOString()` without a Date made per value.
- */
-const iso = (column: string) => `DATE_FORMAT(${column}, '%Y-%m-%dT%H:%i:%s.000Z')`;
-
 /** A row of the jobs board as the list query returns it (times as ISO 8601 text). */
 export interface JobListRow {
   id: number;
@@ -66,14 +61,7 @@ export interface JobListRow {
   proposalProgress: JobProposalProgress | null;
 }
 
-interface JobListSqlRow extends Omit<JobListRow, "proposalProgress"> {
-  proposalStatus: JobProposalProgress["status"] | null;
-  proposalSentAt: string | null;
-  proposalViewedAt: string | null;
-  proposalAcceptedAt: string | null;
-  proposalDeclinedAt: string | null;
-  depositStatus: JobProposalProgress["depositStatus"];
-}
+type JobListSqlRow = Omit<JobListRow, "proposalProgress"> & ProgressColumns;
 
 const numOrNull = (v: unknown) => (v === null || v === undefined ? null : Number(v));
 
@@ -92,17 +80,7 @@ function toJobListRow(r: JobListSqlRow): JobListRow {
     archivedAt: r.archivedAt,
     createdAt: r.createdAt,
     updatedAt: r.updatedAt,
-    proposalProgress:
-      r.proposalStatus === null
-        ? null
-        : {
-            status: r.proposalStatus,
-            sentAt: r.proposalSentAt!,
-            viewedAt: r.proposalViewedAt,
-            acceptedAt: r.proposalAcceptedAt,
-            declinedAt: r.proposalDeclinedAt,
-            depositStatus: r.depositStatus ?? null,
-          },
+    proposalProgress: progressOf(r),
   };
 }
 
@@ -155,18 +133,15 @@ export class JobsService {
         `SELECT (${countSql}) AS total, j.id, j.status, j.customer_id AS customerId, c.name AS customerName,
                 j.site_address_line1 AS siteAddressLine1, j.site_city AS siteCity,
                 j.estimator_id AS estimatorId, u.name AS estimatorName, j.squares,
-                j.quote_total_cents AS quoteTotalCents, ${iso("j.archived_at")} AS archivedAt,
-                ${iso("j.created_at")} AS createdAt, ${iso("j.updated_at")} AS updatedAt,
-                pr.status AS proposalStatus, ${iso("pr.created_at")} AS proposalSentAt, ${iso("pr.viewed_at")} AS proposalViewedAt,
-                ${iso("pr.accepted_at")} AS proposalAcceptedAt, ${iso("pr.declined_at")} AS proposalDeclinedAt,
-                (SELECT pay.status FROM payments pay WHERE pay.proposal_id = pr.id
-                  ORDER BY pay.status = 'paid' DESC, pay.id DESC LIMIT 1) AS depositStatus
+                j.quote_total_cents AS quoteTotalCents, ${isoText("j.archived_at")} AS archivedAt,
+                ${isoText("j.created_at")} AS createdAt, ${isoText("j.updated_at")} AS updatedAt,
+                ${PROGRESS_COLUMNS}
            FROM (SELECT j.id FROM jobs j${byCustomer ? " JOIN customers c ON c.id = j.customer_id" : ""}
                   WHERE ${filter} ORDER BY ${order} LIMIT ${limit} OFFSET ${offset}) page
            JOIN jobs j ON j.id = page.id
            JOIN customers c ON c.id = j.customer_id
            LEFT JOIN users u ON u.id = j.estimator_id
-           LEFT JOIN proposals pr ON pr.id = (SELECT MAX(p2.id) FROM proposals p2 WHERE p2.company_id = j.company_id AND p2.job_id = j.id)
+           ${PROGRESS_JOIN}
           ORDER BY ${order}`,
         select,
       );
