@@ -20,11 +20,9 @@
 import autocannon from "autocannon";
 import { spawn } from "node:child_process";
 import { loadDotEnv } from "./lib/env";
-import { startLocalMariaDb, type LocalDb } from "./lib/mariadb";
-import { hasExternalDatabase, loadConfig } from "../server/config";
-import { createSequelize } from "../server/db/sequelize";
-import { createMigrator } from "../server/db/migrator";
-import { Company, Customer, Job, Roof, User, initModels } from "../server/models/index";
+import { freshBenchDatabase } from "./lib/bench-db";
+import { percentile, signInOverHttp } from "./lib/bench-http";
+import { Company, Customer, Job, Roof, User } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
 import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
@@ -104,7 +102,6 @@ interface Measured {
   byStatus: Record<number, number>;
 }
 
-const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] : NaN);
 
 async function measure(name: string, opts: autocannon.Options): Promise<Measured> {
   const times: number[] = [];
@@ -136,32 +133,8 @@ async function measure(name: string, opts: autocannon.Options): Promise<Measured
 // ---- main -------------------------------------------------------------------------------------------------
 
 async function main() {
-  let localDb: LocalDb | null = null;
-  if (!hasExternalDatabase()) {
-    localDb = await startLocalMariaDb({
-      base: process.env.DB_DIR ?? ".data/mariadb",
-      port: Number(process.env.DB_PORT ?? 3307),
-      database: process.env.DB_NAME ?? "ridgewright",
-      user: process.env.DB_USER ?? "app",
-      log: (m) => console.log(m),
-    });
-    Object.assign(process.env, { DB_HOST: localDb.host, DB_PORT: String(localDb.port), DB_NAME: localDb.database, DB_USER: localDb.user, DB_PASSWORD: localDb.password });
-  }
-  const base = loadConfig();
-  const benchName = `${base.db.database}_bench`;
-  if (!/^[A-Za-z0-9_]+$/.test(benchName)) throw new Error(`Unusable database name ${benchName}`);
-
-  // Make the bench database new (the app user may create `<db>_…` databases).
-  const admin = createSequelize({ ...base.db });
-  await admin.query(`DROP DATABASE IF EXISTS \`${benchName}\``);
-  await admin.query(`CREATE DATABASE \`${benchName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await admin.close();
-  console.log(`Benchmark database ${benchName} created (the demo database ${base.db.database} is not touched).`);
-
-  const config = { ...base, db: { ...base.db, database: benchName, poolMax: Math.max(base.db.poolMax, 25) }, logLevel: "silent" as const };
-  const sequelize = createSequelize(config.db);
-  initModels(sequelize);
-  await createMigrator(sequelize).up();
+  const bench = await freshBenchDatabase("bench", 25);
+  const { config, sequelize } = bench;
 
   // ---- seed -----------------------------------------------------------------------------------------------
   const t0 = Date.now();
@@ -264,24 +237,12 @@ async function main() {
   const url = `http://127.0.0.1:${port}`;
   process.once("exit", () => child.kill("SIGTERM")); // never leave the app running if this script fails
 
-  // Sign in (CSRF token, login, a fresh token for the new session).
-  let cookie = "";
-  const call = async (path: string, init: RequestInit = {}) => {
-    const res = await fetch(url + path, { ...init, headers: { "content-type": "application/json", "x-forwarded-proto": "https", cookie, ...(init.headers ?? {}) } });
-    const set = res.headers.getSetCookie?.() ?? [];
-    if (set.length) cookie = set.map((c) => c.split(";")[0]).join("; ");
-    return res;
-  };
-  const token1 = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
-  const login = await call("/api/auth/login", { method: "POST", headers: { "x-csrf-token": token1 }, body: JSON.stringify({ email: owner.email, password: PASSWORD }) });
-  if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
-  const token = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
-  const headers = { cookie, "x-csrf-token": token, "content-type": "application/json", "x-forwarded-proto": "https" };
+  const headers = await signInOverHttp(url, owner.email, PASSWORD, { "x-forwarded-proto": "https" });
 
   const listPath = "/api/jobs?page=3&pageSize=50&status=estimating&sort=-updatedAt";
   const searchPath = "/api/jobs?q=heron&pageSize=50";
   for (const p of [listPath, searchPath]) {
-    const r = await call(p);
+    const r = await fetch(url + p, { headers });
     const body = (await r.json()) as { data: unknown[]; meta: { total: number } };
     console.log(`GET ${p} → ${r.status}, ${body.data.length} rows of ${body.meta.total}`);
   }
@@ -356,8 +317,7 @@ async function main() {
     child.once("exit", () => r());
     child.kill("SIGTERM");
   });
-  await sequelize.close();
-  if (localDb?.started) await localDb.stop();
+  await bench.close();
 }
 
 main().catch((err) => {

@@ -25,10 +25,10 @@ import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadDotEnv } from "./lib/env";
-import { startLocalMariaDb, type LocalDb } from "./lib/mariadb";
-import { hasExternalDatabase, loadConfig } from "../server/config";
+import { freshBenchDatabase } from "./lib/bench-db";
+import { percentile, signInOverHttp } from "./lib/bench-http";
+import { loadConfig } from "../server/config";
 import { createSequelize } from "../server/db/sequelize";
-import { createMigrator } from "../server/db/migrator";
 import { initModels, Company, Customer, Job, Roof, User } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
@@ -114,7 +114,6 @@ function houseRoof(version: number): RoofSaveValues {
 
 // ---- measuring ----------------------------------------------------------------------------------------
 
-const percentile = (sorted: number[], p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))] : NaN);
 
 interface Mem {
   rss: number;
@@ -153,30 +152,9 @@ async function main() {
     if (r.status !== 0) throw new Error("the client build failed");
   }
 
-  let localDb: LocalDb | null = null;
-  if (!hasExternalDatabase()) {
-    localDb = await startLocalMariaDb({
-      base: process.env.DB_DIR ?? ".data/mariadb",
-      port: Number(process.env.DB_PORT ?? 3307),
-      database: process.env.DB_NAME ?? "ridgewright",
-      user: process.env.DB_USER ?? "app",
-      log: (m) => console.log(m),
-    });
-    Object.assign(process.env, { DB_HOST: localDb.host, DB_PORT: String(localDb.port), DB_NAME: localDb.database, DB_USER: localDb.user, DB_PASSWORD: localDb.password });
-  }
-  const base = loadConfig();
-  const name = `${base.db.database}_load`;
-  if (!/^[A-Za-z0-9_]+$/.test(name)) throw new Error(`Unusable database name ${name}`);
-  const admin = createSequelize({ ...base.db });
-  await admin.query(`DROP DATABASE IF EXISTS \`${name}\``);
-  await admin.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await admin.close();
-  console.log(`Load database ${name} created (the demo database ${base.db.database} is not touched).`);
-  const poolMax = Math.max(base.db.poolMax, 20);
-  const dbConfig = { ...base.db, database: name, poolMax };
-  const sequelize = createSequelize(dbConfig);
-  initModels(sequelize);
-  await createMigrator(sequelize).up();
+  const bench = await freshBenchDatabase("load", 20);
+  const { sequelize } = bench;
+  const dbConfig = bench.config.db;
 
   // ---- seed --------------------------------------------------------------------------------------------
   const t0 = Date.now();
@@ -248,10 +226,10 @@ async function main() {
       SESSION_SECRET: "bench-load-only-session-secret-0123456789",
       DB_HOST: dbConfig.host,
       DB_PORT: String(dbConfig.port),
-      DB_NAME: name,
+      DB_NAME: dbConfig.database,
       DB_USER: dbConfig.user,
       DB_PASSWORD: dbConfig.password,
-      DB_POOL_MAX: String(poolMax),
+      DB_POOL_MAX: String(dbConfig.poolMax),
       PORT: "0",
       LOG_LEVEL: "error",
       TRUST_PROXY: "1", // as behind a TLS-terminating proxy: the requests say X-Forwarded-Proto: https
@@ -277,18 +255,7 @@ async function main() {
     });
   const url = `http://127.0.0.1:${port}`;
 
-  let cookie = "";
-  const call = async (p: string, init: RequestInit = {}) => {
-    const res = await fetch(url + p, { ...init, headers: { "content-type": "application/json", "x-forwarded-proto": "https", cookie, ...(init.headers ?? {}) } });
-    const set = res.headers.getSetCookie?.() ?? [];
-    if (set.length) cookie = set.map((c) => c.split(";")[0]).join("; ");
-    return res;
-  };
-  const token1 = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
-  const login = await call("/api/auth/login", { method: "POST", headers: { "x-csrf-token": token1 }, body: JSON.stringify({ email: owner.email, password: PASSWORD }) });
-  if (login.status !== 200) throw new Error(`sign-in failed: ${login.status} ${await login.text()}`);
-  const token = ((await (await call("/api/auth/csrf")).json()) as { token: string }).token;
-  const headers = { cookie, "x-csrf-token": token, "content-type": "application/json", "x-forwarded-proto": "https" };
+  const headers = await signInOverHttp(url, owner.email, PASSWORD, { "x-forwarded-proto": "https" });
 
   // ---- the requests of the mix ------------------------------------------------------------------------------
   const boardPaths = ["/api/jobs?page=1&pageSize=25&sort=-updatedAt", "/api/jobs?page=2&pageSize=25&status=estimating&sort=-updatedAt", "/api/jobs?pageSize=25&q=heron"];
@@ -306,7 +273,7 @@ async function main() {
     ["/", {}], // the built client's page
   ];
   for (const [p, init] of checks) {
-    const r = await call(p, init);
+    const r = await fetch(url + p, { ...init, headers }); // signed in, as every request of the mix
     const bytes = (await r.arrayBuffer()).byteLength;
     if (r.status !== 200) throw new Error(`GET/POST ${p} answered ${r.status}`);
     console.log(`${init.method ?? "GET"} ${p} → ${r.status}, ${(bytes / 1024).toFixed(1)} KB`);
@@ -425,8 +392,7 @@ async function main() {
     child.once("exit", () => r());
     child.kill("SIGTERM");
   });
-  await sequelize.close();
-  if (localDb?.started) await localDb.stop();
+  await bench.close();
 }
 
 if (process.argv.includes("--serve")) {
