@@ -3,7 +3,7 @@
  * CONNECTIONS concurrent connections (default 50) for DURATION seconds (default 60).
  *
  * - Builds the client (`vite build`; BENCH_SKIP_BUILD=1 skips it) and runs the server in a process of its own
- *   (this file with `--serve`: createApp with the built client, NODE_ENV=production), so the load generator
+ *   (scripts/lib/serve-app.ts with CLIENT_DIR=dist and NODE_ENV=production), so the load generator
  *   in this process does not share the server's event loop.
  * - A database of its own, `<DB_NAME>_load`, dropped and made new on every run (never the demo database): one
  *   invented company with the demo price book, 600 customers, 3,000 jobs over every status, a measured
@@ -21,15 +21,12 @@
  */
 import autocannon from "autocannon";
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import type { AddressInfo } from "node:net";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { loadDotEnv } from "./lib/env";
 import { freshBenchDatabase } from "./lib/bench-db";
 import { percentile, signInOverHttp } from "./lib/bench-http";
-import { loadConfig } from "../server/config";
-import { createSequelize } from "../server/db/sequelize";
-import { initModels, Company, Customer, Job, Roof, User } from "../server/models/index";
+import { Company, Customer, Job, Roof, User } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
 import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
@@ -39,35 +36,6 @@ import { jobSiteSchema, JOB_STATUSES, type JobStatus } from "../shared/schemas/j
 import { roofSaveSchema, type RoofSaveValues } from "../shared/schemas/roof";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
-
-// ---- the server process (`--serve`) -------------------------------------------------------------------
-
-async function serve() {
-  const { createSessionStore } = await import("../server/session-store");
-  const { createApp } = await import("../server/app");
-  const { createLogger } = await import("../server/logger");
-  const config = loadConfig();
-  const sequelize = createSequelize(config.db);
-  initModels(sequelize);
-  const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
-  const noMail = { send: async () => ({ messageId: "<bench-load@example.com>" }) };
-  const app = createApp({ config, logger: createLogger("error"), sequelize, sessionStore, mailer: noMail, clientDir: path.join(root, "dist") });
-  const server = app.listen(config.port, "127.0.0.1", () => {
-    process.send!({ listening: (server.address() as AddressInfo).port });
-  });
-  process.on("message", (m: { mem?: boolean; gc?: boolean }) => {
-    if (m.gc) (globalThis as { gc?: () => void }).gc?.();
-    const mu = process.memoryUsage();
-    process.send!({ mem: { rss: mu.rss, heapUsed: mu.heapUsed, heapTotal: mu.heapTotal, external: mu.external } });
-  });
-  process.once("SIGTERM", () => {
-    server.closeAllConnections();
-    server.close(() => {
-      sessionStore.stopExpiringSessions();
-      void sequelize.close().then(() => process.exit(0));
-    });
-  });
-}
 
 // ---- invented data ------------------------------------------------------------------------------------
 
@@ -218,7 +186,7 @@ async function main() {
   console.log(`Seeded ${JOBS} jobs, ${CUSTOMERS} customers, ${ROOFED} roofs of ${doc.planes.length} planes, quote ${quoteId} in ${((Date.now() - t0) / 1000).toFixed(1)} s.`);
 
   // ---- the server, in a process of its own ---------------------------------------------------------------
-  const child: ChildProcess = spawn(process.execPath, ["--expose-gc", "--import", "tsx", path.join(root, "scripts/bench-load.ts"), "--serve"], {
+  const child: ChildProcess = spawn(process.execPath, ["--expose-gc", "--import", "tsx", path.join(root, "scripts/lib/serve-app.ts")], {
     cwd: root,
     env: {
       ...process.env,
@@ -234,6 +202,7 @@ async function main() {
       LOG_LEVEL: "error",
       TRUST_PROXY: "1", // as behind a TLS-terminating proxy: the requests say X-Forwarded-Proto: https
       STORAGE_DIR: ".data/bench-load-storage",
+      CLIENT_DIR: path.join(root, "dist"),
       SMTP_URL: "smtp://127.0.0.1:9", // never used (no outbox worker runs here); keeps the catcher off
     },
     stdio: ["ignore", "inherit", "inherit", "ipc"],
@@ -395,14 +364,7 @@ async function main() {
   await bench.close();
 }
 
-if (process.argv.includes("--serve")) {
-  serve().catch((err) => {
-    console.error(err);
-    process.exit(1);
-  });
-} else {
-  main().catch((err) => {
-    console.error(err instanceof Error ? (err.stack ?? err.message).slice(0, 4_000) : err);
-    process.exit(1);
-  });
-}
+main().catch((err) => {
+  console.error(err instanceof Error ? (err.stack ?? err.message).slice(0, 4_000) : err);
+  process.exit(1);
+});

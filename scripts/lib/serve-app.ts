@@ -3,6 +3,10 @@
  * seed, no mail, listening on PORT (0 = any free port). Prints `listening <port>` when ready and stops
  * on SIGTERM. The benchmark's load generator runs in the parent, so the two do not share one core.
  *
+ * CLIENT_DIR serves the built client from that folder too. Started with an IPC channel (one process), it also
+ * sends `{ listening: port }` and answers `{ mem: true, gc? }` with its memory use (after a full collection when
+ * `gc` is set and node runs with --expose-gc), for the load benchmark.
+ *
  * WORKERS=n (default 1) runs n copies of the app behind one port with node:cluster, as one would run a
  * process per core in production (sessions, rate limits and background work live in MariaDB, so the
  * copies behave as one server).
@@ -50,12 +54,21 @@ if (workers > 1 && cluster.isPrimary) {
   initModels(sequelize);
   const sessionStore = createSessionStore(sequelize, config.sessionMaxAgeMs);
   const noMail = { send: async () => ({ messageId: "<bench@example.com>" }) };
-  const app = createApp({ config, logger: createLogger("error"), sequelize, sessionStore, mailer: noMail });
+  const clientDir = process.env.CLIENT_DIR || undefined;
+  const app = createApp({ config, logger: createLogger("error"), sequelize, sessionStore, mailer: noMail, clientDir });
   const server = app.listen(config.port, "127.0.0.1", () => {
     const port = (server.address() as AddressInfo).port;
-    if (cluster.isWorker) process.send!({ listening: port });
-    else console.log(`listening ${port}`);
+    if (process.send) process.send({ listening: port }); // the cluster's primary, or a parent with IPC
+    if (!cluster.isWorker) console.log(`listening ${port}`);
   });
+  if (process.send && !cluster.isWorker) {
+    process.on("message", (m: { mem?: boolean; gc?: boolean }) => {
+      if (!m?.mem) return;
+      if (m.gc) (globalThis as { gc?: () => void }).gc?.();
+      const mu = process.memoryUsage();
+      process.send!({ mem: { rss: mu.rss, heapUsed: mu.heapUsed, heapTotal: mu.heapTotal, external: mu.external } });
+    });
+  }
   process.once("SIGTERM", () => {
     server.closeAllConnections();
     server.close(() => {
