@@ -23,8 +23,14 @@ export interface ServerProcess {
   url: string;
   port: number;
   pid: number;
+  child: ChildProcess;
   /** Everything the child wrote to stderr so far (for failure messages). */
   stderr(): string;
+  /** Everything it wrote, stdout and stderr. */
+  output(): string;
+  exited(): boolean;
+  /** Sends `signal` (SIGTERM by default) and waits for the process to end; SIGKILL after `graceMs`. */
+  kill(signal?: NodeJS.Signals, graceMs?: number): Promise<void>;
   /** SIGTERM, then SIGKILL if it has not exited within 10 s. */
   stop(): Promise<void>;
 }
@@ -62,8 +68,13 @@ export async function startServerProcess(env: Record<string, string>, timeoutMs 
   children.add(child);
   let err = "";
   let out = "";
+  let all = "";
   child.stderr!.setEncoding("utf8").on("data", (d: string) => {
     err = (err + d).slice(-20_000);
+    all = (all + d).slice(-40_000);
+  });
+  child.stdout!.setEncoding("utf8").on("data", (d: string) => {
+    all = (all + d).slice(-40_000);
   });
   const exited = new Promise<void>((resolve) => child.once("exit", () => resolve()));
   const ready = await new Promise<{ url: string; port: number }>((resolve, reject) => {
@@ -71,7 +82,7 @@ export async function startServerProcess(env: Record<string, string>, timeoutMs 
       child.kill("SIGKILL");
       reject(new Error(`server process did not start within ${timeoutMs} ms\n${err}`));
     }, timeoutMs);
-    child.stdout!.setEncoding("utf8").on("data", (d: string) => {
+    child.stdout!.on("data", (d: string) => {
       out += d;
       const line = out.split("\n").find((l) => l.startsWith(READY));
       if (line) {
@@ -84,19 +95,25 @@ export async function startServerProcess(env: Record<string, string>, timeoutMs 
       reject(new Error(`server process exited before it was ready (code ${code}, signal ${signal})\n${err}`));
     });
   });
+  const isExited = () => child.exitCode !== null || child.signalCode !== null;
+  const kill = async (signal: NodeJS.Signals = "SIGTERM", graceMs = 10_000) => {
+    if (!isExited()) {
+      child.kill(signal);
+      const timer = setTimeout(() => child.kill("SIGKILL"), graceMs);
+      await exited;
+      clearTimeout(timer);
+    }
+    children.delete(child);
+  };
   return {
     ...ready,
     pid: child.pid!,
+    child,
     stderr: () => err,
-    async stop() {
-      if (child.exitCode === null && child.signalCode === null) {
-        child.kill("SIGTERM");
-        const timer = setTimeout(() => child.kill("SIGKILL"), 10_000);
-        await exited;
-        clearTimeout(timer);
-      }
-      children.delete(child);
-    },
+    output: () => all,
+    exited: isExited,
+    kill,
+    stop: () => kill("SIGTERM"),
   };
 }
 
