@@ -26,7 +26,7 @@ import {
   windAdvisories,
 } from "./advisories";
 import { ceilTol, fmt, num, plural, wasteText } from "./format";
-import { battenPieces, battenRows, counterBattenRuns } from "./layers/battens";
+import { battenPieces, battenTotals, counterBattenTotals } from "./layers/battens";
 import { deckAreaToReplace } from "./layers/deck";
 import { iceBarrierCourses, iceBarrierWidthIn } from "./layers/ice-barrier";
 import { rollsFor, type RollSpec } from "./layers/rolls";
@@ -295,9 +295,10 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     const ch = channelOf(stack);
     const vented = gapVentilated(stack, ch);
     const single = singlePieceTypes(g, pieces);
-    for (const p of panels.pieces) {
-      const bottom = edgeTypeAtPanelEnd(g, pieces, single, p.bottomEdge, p.sProbe);
-      const top = edgeTypeAtPanelEnd(g, pieces, single, p.topEdge, p.sProbe);
+    const pp = panels.pieces;
+    for (let n = 0; n < pp.count; n++) {
+      const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge[n], pp.sProbe[n]);
+      const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge[n], pp.sProbe[n]);
       if (bottom === "eave") {
         if (vented) closureVented++;
         else closureEave++;
@@ -338,23 +339,23 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     let meshSqFt = 0;
     let dimpledSqFt = 0;
     if (sp.kind === "battens") {
-      const rows = battenRows(g, sp.battens.spacingIn, rules.battens.fastenerSpacingIn);
+      const rows = battenTotals(g, sp.battens.spacingIn, rules.battens.fastenerSpacingIn);
       const b = battenLf.get(sp.battens.nominal) ?? { lf: 0, rows: 0 };
       b.lf += rows.lf;
-      b.rows += rows.rows.length;
+      b.rows += rows.rows;
       battenLf.set(sp.battens.nominal, b);
       spacerFasteners += rows.fasteners;
-      battens = { nominal: sp.battens.nominal, rows: rows.rows.length, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
+      battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
       if (sp.battens.counterBattens) {
         const nominal = sp.battens.counterBattenNominal ?? sp.battens.nominal;
         const spacing = sp.battens.counterBattenSpacingIn ?? rules.battens.counterBattenSpacingIn;
-        const cr = counterBattenRuns(g, spacing, rules.battens.fastenerSpacingIn);
+        const cr = counterBattenTotals(g, spacing, rules.battens.fastenerSpacingIn);
         const c = counterLf.get(nominal) ?? { lf: 0, runs: 0 };
         c.lf += cr.lf;
-        c.runs += cr.rows.length;
+        c.runs += cr.rows;
         counterLf.set(nominal, c);
         spacerFasteners += cr.fasteners;
-        counterBattens = { nominal, runs: cr.rows.length, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
+        counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
       }
     } else if (sp.kind === "mesh") {
       meshSqFt = g.slopedAreaSqFt;

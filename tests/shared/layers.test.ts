@@ -1,7 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { rollNetSqFt, rollsFor } from "@shared/engine/layers/rolls";
 import { iceBarrierCourses, iceBarrierWidthIn } from "@shared/engine/layers/ice-barrier";
-import { battenPieces, battenRows, counterBattenRuns } from "@shared/engine/layers/battens";
+import { battenPieces, battenRows, battenTotals, counterBattenRuns, counterBattenTotals } from "@shared/engine/layers/battens";
+import { lShapeGableRoof } from "@shared/engine/roof/generators";
 import { deckAreaToReplace } from "@shared/engine/layers/deck";
 import { slopeFactor } from "@shared/engine/roof/slope";
 import { computeTakeoff } from "@shared/engine/takeoff";
@@ -100,6 +101,20 @@ describe("battens and counter-battens (common practice, no published source)", (
     expect(c.lf).toBeCloseTo(11 * 10 * slopeFactor(4), 8);
     // per run ceil(126.49 / 24) + 1 = 7
     expect(c.fasteners).toBe(77);
+  });
+
+  it("the totals the takeoff uses are the listed rows summed (rows, length, fasteners), on an L-shaped roof too", () => {
+    const planes = [...geoms([rect]), ...geoms(lShapeGableRoof({ mainWidthFt: 40, mainDepthFt: 26, wingWidthFt: 18, wingDepthFt: 12, wingOffsetFt: 10 }, 7))];
+    for (const pl of planes) {
+      for (const [listed, totals] of [
+        [battenRows(pl, 24, 12), battenTotals(pl, 24, 12)],
+        [counterBattenRuns(pl, 16), counterBattenTotals(pl, 16)],
+      ] as const) {
+        expect(totals.rows).toBe(listed.rows.length);
+        expect(totals.lf).toBe(listed.rows.reduce((t, r) => t + r.lengthFt, 0));
+        expect(totals.fasteners).toBe(listed.rows.reduce((t, r) => t + r.fasteners, 0));
+      }
+    }
   });
 
   it("lumber sizes through the batten gap: 1x = 3/4 in, 2x = 1-1/2 in (NIST PS 20 dry dressed sizes)", () => {

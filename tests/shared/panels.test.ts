@@ -35,7 +35,7 @@ describe("panel layout", () => {
     expect(p.count).toBe(5); // 10 ft ÷ 2 ft
     // local s is measured from the eave's first corner (x = 2): the first strip starts 2 ft to its left, at x = 0
     expect(g.sMin).toBeCloseTo(-2, 12);
-    expect(p.pieces[0].stripS0).toBeCloseTo(-2, 12);
+    expect(p.pieces.at(0).stripS0).toBeCloseTo(-2, 12);
   });
 
   it("left, right and centred starts", () => {

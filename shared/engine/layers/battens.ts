@@ -28,38 +28,67 @@ export interface BattenLayout {
 
 const nudge = 1e-6;
 
-/** Sample positions from lo to hi at `step`, the first at lo and the last at hi (no duplicate near hi). */
-function positions(lo: number, hi: number, step: number): number[] {
-  const out: number[] = [];
-  if (!(step > 0) || hi - lo <= TOL) return hi - lo > 0 ? [lo, hi] : [lo];
-  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) out.push(x);
-  out.push(hi);
-  return out;
+/** Rows (or runs), total length and fasteners of one plane's battens or counter-battens. */
+export interface BattenTotals {
+  rows: number;
+  lf: number;
+  fasteners: number;
 }
 
-export function battenRows(g: PlaneGeometry, spacingIn: number, fastenerSpacingIn = 24): BattenLayout {
-  const stepPlan = spacingIn / 12 / g.slopeFactor;
-  const rows: BattenRow[] = [];
-  for (const v of positions(0, g.vMax, stepPlan)) {
-    const c = Math.min(Math.max(v, nudge), g.vMax - nudge);
-    eachCrossSection(g.local, 1, c, (len) => {
-      if (len > TOL) rows.push({ vFt: v, lengthFt: len, fasteners: ceilTol((len * 12) / fastenerSpacingIn) + 1 });
-    });
+/**
+ * The lines of one layer: along v (axis 1, battens across the slope) or along s (axis 0, counter-battens up
+ * the slope), placed from lo to hi at `step` (plan ft), the first at lo and the last at hi (none doubled near
+ * hi), each line's pieces measured on the polygon and multiplied by `k` to true length. Adds each row to
+ * `rows` when given.
+ */
+function layLines(g: PlaneGeometry, axis: 0 | 1, lo: number, hi: number, step: number, k: number, fastenerSpacingIn: number, rows?: BattenRow[]): BattenTotals {
+  const t: BattenTotals = { rows: 0, lf: 0, fasteners: 0 };
+  let at = 0;
+  const each = (planLen: number) => {
+    const len = planLen * k;
+    if (!(len > TOL)) return;
+    const fasteners = ceilTol((len * 12) / fastenerSpacingIn) + 1;
+    t.rows++;
+    t.lf += len;
+    t.fasteners += fasteners;
+    rows?.push({ vFt: at, lengthFt: len, fasteners });
+  };
+  const line = (x: number) => {
+    at = x;
+    eachCrossSection(g.local, axis, Math.min(Math.max(x, lo + nudge), hi - nudge), each);
+  };
+  if (!(step > 0) || hi - lo <= TOL) {
+    line(lo);
+    if (hi - lo > 0) line(hi);
+    return t;
   }
-  return { rows, lf: rows.reduce((t, r) => t + r.lengthFt, 0), fasteners: rows.reduce((t, r) => t + r.fasteners, 0) };
+  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) line(x);
+  line(hi);
+  return t;
 }
 
+/** Battens: rows across the slope at `spacingIn` along the slope. */
+export function battenTotals(g: PlaneGeometry, spacingIn: number, fastenerSpacingIn = 24, rows?: BattenRow[]): BattenTotals {
+  return layLines(g, 1, 0, g.vMax, spacingIn / 12 / g.slopeFactor, 1, fastenerSpacingIn, rows);
+}
+
+/** Counter-battens: runs up the slope at `spacingIn` across it. */
+export function counterBattenTotals(g: PlaneGeometry, spacingIn: number, fastenerSpacingIn = 24, rows?: BattenRow[]): BattenTotals {
+  return layLines(g, 0, g.sMin, g.sMax, spacingIn / 12, g.slopeFactor, fastenerSpacingIn, rows);
+}
+
+/** Battens with each row listed. */
+export function battenRows(g: PlaneGeometry, spacingIn: number, fastenerSpacingIn = 24): BattenLayout {
+  const rows: BattenRow[] = [];
+  const t = battenTotals(g, spacingIn, fastenerSpacingIn, rows);
+  return { rows, lf: t.lf, fasteners: t.fasteners };
+}
+
+/** Counter-battens with each run listed. */
 export function counterBattenRuns(g: PlaneGeometry, spacingIn: number, fastenerSpacingIn = 24): BattenLayout {
   const rows: BattenRow[] = [];
-  const k = g.slopeFactor;
-  for (const s of positions(g.sMin, g.sMax, spacingIn / 12)) {
-    const c = Math.min(Math.max(s, g.sMin + nudge), g.sMax - nudge);
-    eachCrossSection(g.local, 0, c, (planLen) => {
-      const len = planLen * k;
-      if (len > TOL) rows.push({ vFt: s, lengthFt: len, fasteners: ceilTol((len * 12) / fastenerSpacingIn) + 1 });
-    });
-  }
-  return { rows, lf: rows.reduce((t, r) => t + r.lengthFt, 0), fasteners: rows.reduce((t, r) => t + r.fasteners, 0) };
+  const t = counterBattenTotals(g, spacingIn, fastenerSpacingIn, rows);
+  return { rows, lf: t.lf, fasteners: t.fasteners };
 }
 
 /** Stock pieces for a batten run total. */

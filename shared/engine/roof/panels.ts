@@ -36,6 +36,85 @@ export interface PanelPiece {
   clipLineS: number;
 }
 
+const FLOAT_COLUMNS = ["stripS0", "stripS1", "sMin", "sMax", "vMin", "vMax", "slopeLengthFt", "sProbe", "clipLineS"] as const;
+const INT_COLUMNS = ["lengthIn", "bottomEdge", "topEdge"] as const;
+
+/**
+ * The panels of one plane, stored by column (typed arrays, no object per panel: a large roof has thousands
+ * of panels and the takeoff reads only a few numbers of each). `at(i)` and iteration give PanelPiece objects.
+ */
+export class PanelPieces implements Iterable<PanelPiece> {
+  count = 0;
+  stripS0: Float64Array;
+  stripS1: Float64Array;
+  sMin: Float64Array;
+  sMax: Float64Array;
+  vMin: Float64Array;
+  vMax: Float64Array;
+  slopeLengthFt: Float64Array;
+  sProbe: Float64Array;
+  clipLineS: Float64Array;
+  lengthIn: Int32Array;
+  bottomEdge: Int32Array;
+  topEdge: Int32Array;
+
+  constructor(capacity = 16) {
+    const n = Math.max(1, capacity);
+    this.stripS0 = new Float64Array(n);
+    this.stripS1 = new Float64Array(n);
+    this.sMin = new Float64Array(n);
+    this.sMax = new Float64Array(n);
+    this.vMin = new Float64Array(n);
+    this.vMax = new Float64Array(n);
+    this.slopeLengthFt = new Float64Array(n);
+    this.sProbe = new Float64Array(n);
+    this.clipLineS = new Float64Array(n);
+    this.lengthIn = new Int32Array(n);
+    this.bottomEdge = new Int32Array(n);
+    this.topEdge = new Int32Array(n);
+  }
+
+  /** Room for one more piece; returns its index. */
+  add(): number {
+    if (this.count === this.lengthIn.length) {
+      const n = this.count * 2;
+      for (const c of FLOAT_COLUMNS) {
+        const a = new Float64Array(n);
+        a.set(this[c]);
+        this[c] = a;
+      }
+      for (const c of INT_COLUMNS) {
+        const a = new Int32Array(n);
+        a.set(this[c]);
+        this[c] = a;
+      }
+    }
+    return this.count++;
+  }
+
+  at(i: number): PanelPiece {
+    if (i < 0 || i >= this.count) throw new RangeError(`no panel ${i} (of ${this.count})`);
+    return {
+      stripS0: this.stripS0[i],
+      stripS1: this.stripS1[i],
+      sMin: this.sMin[i],
+      sMax: this.sMax[i],
+      vMin: this.vMin[i],
+      vMax: this.vMax[i],
+      slopeLengthFt: this.slopeLengthFt[i],
+      lengthIn: this.lengthIn[i],
+      bottomEdge: this.bottomEdge[i],
+      topEdge: this.topEdge[i],
+      sProbe: this.sProbe[i],
+      clipLineS: this.clipLineS[i],
+    };
+  }
+
+  *[Symbol.iterator](): Iterator<PanelPiece> {
+    for (let i = 0; i < this.count; i++) yield this.at(i);
+  }
+}
+
 export interface CutListEntry {
   lengthIn: number;
   count: number;
@@ -55,7 +134,7 @@ export interface PanelLayout {
   /** Coverage area of the panels ordered, ft². */
   orderedAreaSqFt: number;
   longestIn: number;
-  pieces: PanelPiece[];
+  pieces: PanelPieces;
 }
 
 export interface PanelOptions {
@@ -86,50 +165,64 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   const start = opts.start ?? "left";
   const hem = opts.hemAllowanceIn ?? 0;
   const k = g.slopeFactor;
-  const pieces: PanelPiece[] = [];
+  const starts = stripStarts(g.sMin, g.sMax, w, start);
+  const pieces = new PanelPieces(starts.length);
   const convex = isConvex(g.local);
   const scratch: StripComponent = { sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 };
+  let totalIn = 0;
+  let longestIn = 0;
   const add = (c: StripComponent, a: number, b: number) => {
     if (c.sMax - c.sMin <= TOL) return;
     const slopeLengthFt = k * (c.vMax - c.vMin);
     const seam = start === "right" ? b : a;
-    pieces.push({
-      stripS0: a,
-      stripS1: b,
-      sMin: c.sMin,
-      sMax: c.sMax,
-      vMin: c.vMin,
-      vMax: c.vMax,
-      slopeLengthFt,
-      lengthIn: Math.ceil(12 * slopeLengthFt + hem - 1e-6),
-      bottomEdge: c.bottomEdge,
-      topEdge: c.topEdge,
-      sProbe: c.sProbe,
-      clipLineS: Math.min(Math.max(seam, c.sMin), c.sMax),
-    });
+    const lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
+    const i = pieces.add();
+    pieces.stripS0[i] = a;
+    pieces.stripS1[i] = b;
+    pieces.sMin[i] = c.sMin;
+    pieces.sMax[i] = c.sMax;
+    pieces.vMin[i] = c.vMin;
+    pieces.vMax[i] = c.vMax;
+    pieces.slopeLengthFt[i] = slopeLengthFt;
+    pieces.lengthIn[i] = lengthIn;
+    pieces.bottomEdge[i] = c.bottomEdge;
+    pieces.topEdge[i] = c.topEdge;
+    pieces.sProbe[i] = c.sProbe;
+    pieces.clipLineS[i] = Math.min(Math.max(seam, c.sMin), c.sMax);
+    totalIn += lengthIn;
+    if (lengthIn > longestIn) longestIn = lengthIn;
   };
-  for (const a of stripStarts(g.sMin, g.sMax, w, start)) {
+  for (const a of starts) {
     const b = a + w;
     if (convex) {
       const c = convexStripComponent(g.local, a, b, scratch);
       if (c) add(c, a, b);
     } else for (const c of stripComponents(g.local, a, b)) add(c, a, b);
   }
-  const lengthsIn = pieces.map((p) => p.lengthIn);
-  const counts = new Map<number, number>();
-  for (const l of lengthsIn) counts.set(l, (counts.get(l) ?? 0) + 1);
-  const cutList = [...counts.entries()].map(([lengthIn, count]) => ({ lengthIn, count })).sort((p, q) => q.lengthIn - p.lengthIn);
-  const totalLengthFt = lengthsIn.reduce((s, l) => s + l, 0) / 12;
+  const n = pieces.count;
+  const lengthsIn: number[] = new Array(n);
+  for (let i = 0; i < n; i++) lengthsIn[i] = pieces.lengthIn[i];
+  // Cut list: equal lengths grouped, longest first (a sorted copy, counted in one pass).
+  const sorted = pieces.lengthIn.slice(0, n).sort();
+  const cutList: CutListEntry[] = [];
+  for (let i = n - 1; i >= 0; ) {
+    const l = sorted[i];
+    let j = i;
+    while (j >= 0 && sorted[j] === l) j--;
+    cutList.push({ lengthIn: l, count: i - j });
+    i = j;
+  }
+  const totalLengthFt = totalIn / 12;
   const orderedAreaSqFt = w * totalLengthFt;
   return {
     coverageWidthIn: wIn,
-    count: pieces.length,
+    count: n,
     lengthsIn,
     cutList,
     offcutSqFt: orderedAreaSqFt - g.slopedAreaSqFt,
     totalLengthFt,
     orderedAreaSqFt,
-    longestIn: lengthsIn.reduce((m, l) => Math.max(m, l), 0),
+    longestIn,
     pieces,
   };
 }

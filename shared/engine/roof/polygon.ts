@@ -193,20 +193,57 @@ export interface StripComponent {
   sProbe: number;
 }
 
-function rootOf(parent: Int32Array, i: number): number {
-  while (parent[i] !== i) i = parent[i];
-  return i;
-}
 
-interface Trap {
-  s0: number;
-  s1: number;
-  lo0: number;
-  lo1: number;
-  hi0: number;
-  hi1: number;
-  loEdge: number;
-  hiEdge: number;
+// Scratch space for stripComponents (the engine is synchronous and single-threaded): crossings of one slab and
+// the trapezoids of one strip, by column, grown on demand.
+let X_VM = new Float64Array(32);
+let X_V0 = new Float64Array(32);
+let X_V1 = new Float64Array(32);
+let X_E = new Int32Array(32);
+let T_S0 = new Float64Array(64);
+let T_S1 = new Float64Array(64);
+let T_LO0 = new Float64Array(64);
+let T_LO1 = new Float64Array(64);
+let T_HI0 = new Float64Array(64);
+let T_HI1 = new Float64Array(64);
+let T_LOE = new Int32Array(64);
+let T_HIE = new Int32Array(64);
+let T_PARENT = new Int32Array(64);
+let G_S0 = new Float64Array(64);
+let G_S1 = new Float64Array(64);
+let G_V0 = new Float64Array(64);
+let G_V1 = new Float64Array(64);
+let G_BOT = new Int32Array(64);
+let G_TOP = new Int32Array(64);
+let G_COL = new Uint8Array(64);
+const CUT: number[] = [];
+const SLAB_START: number[] = [];
+
+function ensureTraps(n: number): void {
+  if (T_S0.length >= n) return;
+  const m = Math.max(n, T_S0.length * 2);
+  // The trapezoids written so far are kept.
+  const grow = <T extends Float64Array | Int32Array>(a: T): T => {
+    const b = (a instanceof Float64Array ? new Float64Array(m) : new Int32Array(m)) as T;
+    b.set(a);
+    return b;
+  };
+  T_S0 = grow(T_S0);
+  T_S1 = grow(T_S1);
+  T_LO0 = grow(T_LO0);
+  T_LO1 = grow(T_LO1);
+  T_HI0 = grow(T_HI0);
+  T_HI1 = grow(T_HI1);
+  T_LOE = grow(T_LOE);
+  T_HIE = grow(T_HIE);
+  T_PARENT = grow(T_PARENT);
+  G_S0 = new Float64Array(m);
+  G_S1 = new Float64Array(m);
+  G_V0 = new Float64Array(m);
+  G_V1 = new Float64Array(m);
+  G_BOT = new Int32Array(m);
+  G_TOP = new Int32Array(m);
+  G_COL = new Uint8Array(m);
 }
 
 /**
@@ -214,6 +251,8 @@ interface Trap {
  * The strip is cut into slabs at every vertex s; in a slab the edges crossing it do not cross each
  * other (simple polygon), so the polygon is a stack of trapezoids, paired bottom/top in v order.
  * Trapezoids of neighbouring slabs whose v intervals overlap on the shared line are one piece.
+ * Each piece's bottom and top edges are read in the middle of the piece, on the trapezoid there with the
+ * lowest bottom (and the one with the highest top).
  */
 export function stripComponents(poly: readonly Pt[], a: number, b: number, convex = false): StripComponent[] {
   if (convex) {
@@ -221,101 +260,145 @@ export function stripComponents(poly: readonly Pt[], a: number, b: number, conve
     return c ? [c] : [];
   }
   const n = poly.length;
-  const cuts = [a, b];
-  for (const p of poly) if (p[0] > a && p[0] < b) cuts.push(p[0]);
+  if (X_VM.length < n) {
+    X_VM = new Float64Array(2 * n);
+    X_V0 = new Float64Array(2 * n);
+    X_V1 = new Float64Array(2 * n);
+    X_E = new Int32Array(2 * n);
+  }
+  const cuts = CUT;
+  cuts.length = 0;
+  cuts.push(a, b);
+  for (let i = 0; i < n; i++) if (poly[i][0] > a && poly[i][0] < b) cuts.push(poly[i][0]);
   sortSmall(cuts);
-  const slabs: Trap[][] = [];
+  // Trapezoids, slab by slab (a slab's trapezoids are consecutive; SLAB_START marks where each begins).
+  let nt = 0;
+  const slabStart = SLAB_START;
+  slabStart.length = 0;
   for (let k = 0; k + 1 < cuts.length; k++) {
     const s0 = cuts[k];
     const s1 = cuts[k + 1];
     if (s1 - s0 <= 1e-12) continue;
     const sm = (s0 + s1) / 2;
-    const xs: { vm: number; v0: number; v1: number; e: number }[] = [];
+    let nx = 0;
     for (let i = 0; i < n; i++) {
       const p = poly[i];
       const q = poly[(i + 1) % n];
       if (p[0] > sm !== q[0] > sm) {
         const m = (q[1] - p[1]) / (q[0] - p[0]);
-        xs.push({ vm: p[1] + (sm - p[0]) * m, v0: p[1] + (s0 - p[0]) * m, v1: p[1] + (s1 - p[0]) * m, e: i });
+        const vm = p[1] + (sm - p[0]) * m;
+        const v0 = p[1] + (s0 - p[0]) * m;
+        const v1 = p[1] + (s1 - p[0]) * m;
+        // insertion by vm (a handful of crossings)
+        let j = nx - 1;
+        while (j >= 0 && X_VM[j] > vm) {
+          X_VM[j + 1] = X_VM[j];
+          X_V0[j + 1] = X_V0[j];
+          X_V1[j + 1] = X_V1[j];
+          X_E[j + 1] = X_E[j];
+          j--;
+        }
+        X_VM[j + 1] = vm;
+        X_V0[j + 1] = v0;
+        X_V1[j + 1] = v1;
+        X_E[j + 1] = i;
+        nx++;
       }
     }
-    for (let i = 1; i < xs.length; i++) {
-      const x = xs[i];
-      let j = i - 1;
-      while (j >= 0 && xs[j].vm > x.vm) {
-        xs[j + 1] = xs[j];
-        j--;
-      }
-      xs[j + 1] = x;
+    slabStart.push(nt);
+    ensureTraps(nt + (nx >> 1) + 1);
+    for (let i = 0; i + 1 < nx; i += 2) {
+      T_S0[nt] = s0;
+      T_S1[nt] = s1;
+      T_LO0[nt] = X_V0[i];
+      T_LO1[nt] = X_V1[i];
+      T_HI0[nt] = X_V0[i + 1];
+      T_HI1[nt] = X_V1[i + 1];
+      T_LOE[nt] = X_E[i];
+      T_HIE[nt] = X_E[i + 1];
+      T_PARENT[nt] = nt;
+      nt++;
     }
-    const traps: Trap[] = [];
-    for (let i = 0; i + 1 < xs.length; i += 2) {
-      const lo = xs[i];
-      const hi = xs[i + 1];
-      traps.push({ s0, s1, lo0: lo.v0, lo1: lo.v1, hi0: hi.v0, hi1: hi.v1, loEdge: lo.e, hiEdge: hi.e });
-    }
-    slabs.push(traps);
   }
-  // Union-find over trapezoids (no closures: this runs once per strip).
-  const all: Trap[] = [];
-  const slabStart: number[] = [];
-  for (const sl of slabs) {
-    slabStart.push(all.length);
-    for (const t of sl) all.push(t);
-  }
-  const parent = new Int32Array(all.length);
-  for (let i = 0; i < all.length; i++) parent[i] = i;
-  for (let k = 0; k + 1 < slabs.length; k++) {
-    const left = slabs[k];
-    const right = slabs[k + 1];
-    if (left.length === 0 || right.length === 0) continue;
-    if (Math.abs(left[0].s1 - right[0].s0) > 1e-12) continue;
-    for (let i = 0; i < left.length; i++) {
-      for (let j = 0; j < right.length; j++) {
-        const L = left[i];
-        const R = right[j];
-        if (Math.max(L.lo1, R.lo0) < Math.min(L.hi1, R.hi0) - 1e-9) {
-          let x = slabStart[k] + i;
-          while (parent[x] !== x) x = parent[x];
-          let y = slabStart[k + 1] + j;
-          while (parent[y] !== y) y = parent[y];
-          parent[x] = y;
+  slabStart.push(nt);
+  // Union-find over trapezoids of neighbouring slabs that touch along their shared line.
+  const ns = slabStart.length - 1;
+  for (let k = 0; k + 1 < ns; k++) {
+    const l0 = slabStart[k];
+    const l1 = slabStart[k + 1];
+    const r1 = slabStart[k + 2];
+    if (l0 === l1 || l1 === r1) continue;
+    if (Math.abs(T_S1[l0] - T_S0[l1]) > 1e-12) continue;
+    for (let i = l0; i < l1; i++) {
+      for (let j = l1; j < r1; j++) {
+        if (Math.max(T_LO1[i], T_LO0[j]) < Math.min(T_HI1[i], T_HI0[j]) - 1e-9) {
+          let x = i;
+          while (T_PARENT[x] !== x) x = T_PARENT[x];
+          let y = j;
+          while (T_PARENT[y] !== y) y = T_PARENT[y];
+          T_PARENT[x] = y;
         }
       }
     }
   }
-  const find = rootOf;
-  const groups = new Map<number, Trap[]>();
-  for (let i = 0; i < all.length; i++) {
-    const r = find(parent, i);
-    const g = groups.get(r);
-    if (g) g.push(all[i]);
-    else groups.set(r, [all[i]]);
+  // Each piece's extent, by its root.
+  for (let i = 0; i < nt; i++) {
+    let r = i;
+    while (T_PARENT[r] !== r) r = T_PARENT[r];
+    T_PARENT[i] = r;
+  }
+  for (let i = 0; i < nt; i++) {
+    if (T_PARENT[i] !== i) continue;
+    G_S0[i] = Infinity;
+    G_S1[i] = -Infinity;
+    G_V0[i] = Infinity;
+    G_V1[i] = -Infinity;
+    G_BOT[i] = -1;
+    G_TOP[i] = -1;
+    G_COL[i] = 0;
+  }
+  for (let i = 0; i < nt; i++) {
+    const r = T_PARENT[i];
+    if (T_S0[i] < G_S0[r]) G_S0[r] = T_S0[i];
+    if (T_S1[i] > G_S1[r]) G_S1[r] = T_S1[i];
+    const lo = T_LO0[i] < T_LO1[i] ? T_LO0[i] : T_LO1[i];
+    const hi = T_HI0[i] > T_HI1[i] ? T_HI0[i] : T_HI1[i];
+    if (lo < G_V0[r]) G_V0[r] = lo;
+    if (hi > G_V1[r]) G_V1[r] = hi;
+  }
+  // The probe column: trapezoids containing the piece's middle (or all of the piece when none does).
+  for (let i = 0; i < nt; i++) {
+    const r = T_PARENT[i];
+    const sMid = (G_S0[r] + G_S1[r]) / 2;
+    if (T_S0[i] <= sMid && sMid <= T_S1[i]) G_COL[r] = 1;
+  }
+  for (let i = 0; i < nt; i++) {
+    const r = T_PARENT[i];
+    if (G_COL[r]) {
+      const sMid = (G_S0[r] + G_S1[r]) / 2;
+      if (!(T_S0[i] <= sMid && sMid <= T_S1[i])) continue;
+    }
+    const bot = G_BOT[r];
+    if (bot < 0 || T_LO0[i] + T_LO1[i] < T_LO0[bot] + T_LO1[bot]) G_BOT[r] = i;
+    const top = G_TOP[r];
+    if (top < 0 || T_HI0[i] + T_HI1[i] > T_HI0[top] + T_HI1[top]) G_TOP[r] = i;
   }
   const out: StripComponent[] = [];
-  for (const traps of groups.values()) {
-    let sMin = Infinity, sMax = -Infinity, vMin = Infinity, vMax = -Infinity;
-    for (const t of traps) {
-      sMin = Math.min(sMin, t.s0);
-      sMax = Math.max(sMax, t.s1);
-      vMin = Math.min(vMin, t.lo0, t.lo1);
-      vMax = Math.max(vMax, t.hi0, t.hi1);
-    }
-    // Probe edges at the piece's middle: the widest trapezoid column containing the centre.
-    const sMid = (sMin + sMax) / 2;
-    const col: Trap[] = [];
-    for (const t of traps) if (t.s0 <= sMid && sMid <= t.s1) col.push(t);
-    const use = col.length ? col : traps;
-    let bottom = use[0];
-    let top = use[0];
-    for (const t of use) {
-      if (t.lo0 + t.lo1 < bottom.lo0 + bottom.lo1) bottom = t;
-      if (t.hi0 + t.hi1 > top.hi0 + top.hi1) top = t;
-    }
-    const sProbe = Math.min(Math.max(sMid, bottom.s0), bottom.s1);
-    out.push({ sMin, sMax, vMin, vMax, bottomEdge: bottom.loEdge, topEdge: top.hiEdge, sProbe });
+  for (let i = 0; i < nt; i++) {
+    if (T_PARENT[i] !== i) continue;
+    const bottom = G_BOT[i];
+    const sMid = (G_S0[i] + G_S1[i]) / 2;
+    out.push({
+      sMin: G_S0[i],
+      sMax: G_S1[i],
+      vMin: G_V0[i],
+      vMax: G_V1[i],
+      bottomEdge: T_LOE[bottom],
+      topEdge: T_HIE[G_TOP[i]],
+      sProbe: Math.min(Math.max(sMid, T_S0[bottom]), T_S1[bottom]),
+    });
   }
-  out.sort((p, q) => p.vMin - q.vMin || p.sMin - q.sMin);
+  if (out.length > 1) out.sort((p, q) => p.vMin - q.vMin || p.sMin - q.sMin);
   return out;
 }
 

@@ -429,12 +429,14 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
   const zoneList = [zones["1'"], zones["1"], zones["2"], zones["3"]];
   const keyOf = ["field", "field", "edge", "corner"] as const;
   const up = g.up;
-  for (const p of panels.pieces) {
-    const len = p.vMax - p.vMin;
+  const pp = panels.pieces;
+  for (let pi = 0; pi < pp.count; pi++) {
+    const vMin = pp.vMin[pi];
+    const len = pp.vMax[pi] - vMin;
     if (opts.system === "standing-seam") {
       const ns = segmentInto(
-        g.origin[0] + p.clipLineS * g.right[0] + p.vMin * up[0],
-        g.origin[1] + p.clipLineS * g.right[1] + p.vMin * up[1],
+        g.origin[0] + pp.clipLineS[pi] * g.right[0] + vMin * up[0],
+        g.origin[1] + pp.clipLineS[pi] * g.right[1] + vMin * up[1],
         up,
         len,
         roof,
@@ -462,8 +464,8 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       clipsPerPanel.push(n);
       clips += n;
     } else {
-      const sc = (p.sMin + p.sMax) / 2;
-      const ns = segmentInto(g.origin[0] + sc * g.right[0] + p.vMin * up[0], g.origin[1] + sc * g.right[1] + p.vMin * up[1], up, len, roof, opts.model);
+      const sc = (pp.sMin[pi] + pp.sMax[pi]) / 2;
+      const ns = segmentInto(g.origin[0] + sc * g.right[0] + vMin * up[0], g.origin[1] + sc * g.right[1] + vMin * up[1], up, len, roof, opts.model);
       for (let i = 0; i < ns; i++) {
         const z = SEG_ZONE[i];
         const area = w * SEG_LEN[i] * k;
