@@ -25,7 +25,9 @@ export function createSequelize(db: Config["db"], opts: { socketTimeoutMs?: numb
     database: db.database,
     username: db.user,
     password: db.password,
-    logging: false,
+    // DB_LOG_SQL=1 prints every statement with its time (for looking at what a request sends; never in production).
+    logging: process.env.DB_LOG_SQL === "1" ? (sql: string, ms?: number) => console.error(`[sql ${ms ?? "?"} ms] ${sql.length > 300 ? `${sql.slice(0, 300)}… (${sql.length} chars)` : sql}`) : false,
+    benchmark: process.env.DB_LOG_SQL === "1",
     pool: { max: db.poolMax, min: 0, acquire: DB_TIMEOUTS.acquireMs, idle: 10_000 },
     dialectOptions: { connectTimeout: DB_TIMEOUTS.connectMs, socketTimeout: opts.socketTimeoutMs ?? DB_TIMEOUTS.socketMs },
     timezone: "+00:00",
