@@ -35,7 +35,7 @@ import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type Materi
 import type { EdgeType } from "./roof/edge-types";
 import { analyseEdges, buildRuns, pieceAt, type EdgePiece, type EdgeTotals } from "./roof/edges";
 import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
-import { layoutPanels } from "./roof/panels";
+import { layoutPanels, PanelPieces } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
 import { computeThermal, foilFacesGap } from "./thermal/index";
 import { countTrimRuns, TRIM_KEY_BY_EDGE } from "./trim";
@@ -199,7 +199,8 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
 
   // ---- per plane --------------------------------------------------------------------------------------
   const planeResults: PlaneResult[] = [];
-  // Only the longest panel is kept past each plane's loop, so the panel pieces die young (cheap GC).
+  // Only the longest panel is kept past each plane's loop, so one store of panel pieces serves every plane.
+  const panelScratch = new PanelPieces(64);
   const longestByPlane = new Map<number, number>();
   const zones: Record<WindZone, ZoneFasteners> = { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() };
   let clips = 0;
@@ -246,6 +247,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       coverageWidthIn: panelOpts.coverageWidthIn,
       start: panelOpts.start,
       hemAllowanceIn: panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn,
+      into: panelScratch,
     });
     longestByPlane.set(i, panels.longestIn);
     const pKey: MaterialKey = panelOpts.system === "standing-seam" ? "panel-standing-seam" : "panel-exposed-fastener";
@@ -297,8 +299,8 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     const single = singlePieceTypes(g, pieces);
     const pp = panels.pieces;
     for (let n = 0; n < pp.count; n++) {
-      const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge[n], pp.sProbe[n]);
-      const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge[n], pp.sProbe[n]);
+      const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge(n), pp.sProbe(n));
+      const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge(n), pp.sProbe(n));
       if (bottom === "eave") {
         if (vented) closureVented++;
         else closureEave++;
@@ -560,7 +562,19 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     const perRoll = ib.rollLengthFt - ib.endLapIn / 12;
     const exact = (iceMembraneLf * (1 + w.iceBarrierPct / 100)) / perRoll;
     const rolls = ceilTol(exact);
-    const detail = icePlanes.map((p) => `${p.id}: ${fmt(p.eaveLf)} ft eave × ${p.courses} ${plural(p.courses, "course")} (${fmt(p.widthIn)} in up the slope)`).join("; ");
+    // Planes with the same width and courses are one term (a large roof would otherwise list every plane).
+    const groups = new Map<string, { ids: string[]; eaveLf: number; courses: number; widthIn: number }>();
+    for (const p of icePlanes) {
+      const key = `${p.widthIn}|${p.courses}`;
+      const gr = groups.get(key);
+      if (gr) {
+        gr.ids.push(p.id);
+        gr.eaveLf += p.eaveLf;
+      } else groups.set(key, { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn });
+    }
+    const detail = [...groups.values()]
+      .map((gr) => `${gr.ids.length === 1 ? gr.ids[0] : `${gr.ids.length} planes`}: ${fmt(gr.eaveLf)} ft eave × ${gr.courses} ${plural(gr.courses, "course")} (${fmt(gr.widthIn)} in up the slope)`)
+      .join("; ");
     lines.push(
       materialLine(
         "ice-barrier",
@@ -616,7 +630,13 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     if (!rs.length) continue;
     const pieces = rs.reduce((s, r) => s + r.pieces, 0);
     const qty = ceilTol(pieces * (1 + w.trimPct / 100));
-    const list = rs.map((r) => `${fmt(r.lengthFt)} ft → ${r.pieces}`).join(", ");
+    // Equal runs are one term: "4 × 36 ft → 4" (four runs of 36 ft, 4 pieces each).
+    const same = new Map<string, number>();
+    for (const r of rs) {
+      const key = `${fmt(r.lengthFt)} ft → ${r.pieces}`;
+      same.set(key, (same.get(key) ?? 0) + 1);
+    }
+    const list = [...same].map(([key, n]) => (n > 1 ? `${n} × ${key}` : key)).join(", ");
     lines.push(
       materialLine(
         TRIM_KEY_BY_EDGE[t],

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { rollNetSqFt, rollsFor } from "@shared/engine/layers/rolls";
 import { iceBarrierCourses, iceBarrierWidthIn } from "@shared/engine/layers/ice-barrier";
 import { battenPieces, battenRows, battenTotals, counterBattenRuns, counterBattenTotals } from "@shared/engine/layers/battens";
-import { lShapeGableRoof } from "@shared/engine/roof/generators";
+import { hipRoof, lShapeGableRoof } from "@shared/engine/roof/generators";
 import { deckAreaToReplace } from "@shared/engine/layers/deck";
 import { slopeFactor } from "@shared/engine/roof/slope";
 import { computeTakeoff } from "@shared/engine/takeoff";
@@ -71,6 +71,15 @@ describe("ice barrier (IRC R905.1.2)", () => {
     const line = r.result.materials.find((m) => m.key === "ice-barrier")!;
     // 40 lf × 1.05 ÷ 64.5 ft net per 65 ft roll = 0.65 → 1
     expect(line.quantity).toBe(1);
+    expect(line.basis).toBe("a: 20.0 ft eave × 2 courses (37.9 in up the slope) = 40.0 lf of 36 in membrane × 1.05 waste ÷ 64.50 ft net per roll (65 ft − 6 in end lap) = 0.65 → 1 roll");
+  });
+
+  it("planes with the same width and courses are one term of the basis (a hip roof at one pitch)", () => {
+    const r = computeTakeoff(takeoffInput(hipRoof(40, 30, 4), { site: { iceDamRisk: true } }));
+    if (!r.ok) throw new Error(r.reason);
+    const line = r.result.materials.find((m) => m.key === "ice-barrier")!;
+    // eaves 40 + 30 + 40 + 30 = 140 ft, each 2 courses of 36 in for 12 in overhang + 24 in × 1.0541 = 37.9 in
+    expect(line.basis.startsWith("4 planes: 140.0 ft eave × 2 courses (37.9 in up the slope) = 280.0 lf")).toBe(true);
   });
 });
 

@@ -1,4 +1,6 @@
 import { describe, expect, it } from "vitest";
+import { computeTakeoff } from "@shared/engine/takeoff";
+import { hipRoof } from "@shared/engine/roof/generators";
 import { trimFastenersForRun, trimPieces } from "@shared/engine/trim";
 
 describe("trim pieces per run: n = ceil((L − lap) / (stock − lap))", () => {
@@ -26,5 +28,17 @@ describe("trim pieces per run: n = ceil((L − lap) / (stock − lap))", () => {
   it("trim fasteners at 12 in o.c. plus one (common practice)", () => {
     expect(trimFastenersForRun(10)).toBe(11);
     expect(trimFastenersForRun(10.05)).toBe(12);
+  });
+});
+
+describe("trim basis in the takeoff", () => {
+  it("equal runs are one term: a 40 × 30 ft hip roof has 2 eaves of 40 ft and 2 of 30 ft", () => {
+    const r = computeTakeoff({ planes: hipRoof(40, 30, 4), stacks: [{ id: "s" }], defaultStackId: "s" });
+    if (!r.ok) throw new Error(r.reason);
+    const eave = r.result.materials.find((m) => m.key === "trim-eave")!;
+    // common practice, no published source: pieces per run = ceil((L − 3 in) ÷ (10 ft − 3 in));
+    // 40 ft: 477 ÷ 117 = 4.08 → 5; 30 ft: 357 ÷ 117 = 3.05 → 4; 2 × 5 + 2 × 4 = 18
+    expect(eave.basis).toBe("4 runs (2 × 40.0 ft → 5, 2 × 30.0 ft → 4); pieces per run = ceil((L − 3 in lap) ÷ (10 ft − lap)) = 18");
+    expect(eave.quantity).toBe(18);
   });
 });

@@ -375,10 +375,19 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
     const p = pieces[i];
     for (let e = 0; e < 2; e++) {
       const q = e ? p.to : p.from;
-      const cx = Math.floor(q[0] / size);
-      const cy = Math.floor(q[1] / size);
-      for (let ox = -1; ox <= 1; ox++)
-        for (let oy = -1; oy <= 1; oy++) {
+      const gx = q[0] / size;
+      const gy = q[1] / size;
+      const cx = Math.floor(gx);
+      const cy = Math.floor(gy);
+      // A touching end is at most TOL ≤ a quarter cell away: a neighbouring cell only near that side.
+      const fx = gx - cx;
+      const fy = gy - cy;
+      const ox0 = fx < 0.3 ? -1 : 0;
+      const ox1 = fx > 0.7 ? 1 : 0;
+      const oy0 = fy < 0.3 ? -1 : 0;
+      const oy1 = fy > 0.7 ? 1 : 0;
+      for (let ox = ox0; ox <= ox1; ox++)
+        for (let oy = oy0; oy <= oy1; oy++) {
           const cell = grid.get(key(cx + ox, cy + oy));
           if (!cell) continue;
           for (const j of cell) {

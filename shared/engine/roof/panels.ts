@@ -36,77 +36,107 @@ export interface PanelPiece {
   clipLineS: number;
 }
 
-const FLOAT_COLUMNS = ["stripS0", "stripS1", "sMin", "sMax", "vMin", "vMax", "slopeLengthFt", "sProbe", "clipLineS"] as const;
-const INT_COLUMNS = ["lengthIn", "bottomEdge", "topEdge"] as const;
+/** Number slots per panel: 9 floats and 3 integers (see PanelPieces). */
+const NF = 9;
+const NI = 3;
 
 /**
- * The panels of one plane, stored by column (typed arrays, no object per panel: a large roof has thousands
- * of panels and the takeoff reads only a few numbers of each). `at(i)` and iteration give PanelPiece objects.
+ * The panels of one plane, packed into two typed arrays (9 floats and 3 integers per panel, no object per
+ * panel: a large roof has thousands of panels and the takeoff reads only a few numbers of each). Read with
+ * the accessors; `at(i)` and iteration give PanelPiece objects.
  */
 export class PanelPieces implements Iterable<PanelPiece> {
   count = 0;
-  stripS0: Float64Array;
-  stripS1: Float64Array;
-  sMin: Float64Array;
-  sMax: Float64Array;
-  vMin: Float64Array;
-  vMax: Float64Array;
-  slopeLengthFt: Float64Array;
-  sProbe: Float64Array;
-  clipLineS: Float64Array;
-  lengthIn: Int32Array;
-  bottomEdge: Int32Array;
-  topEdge: Int32Array;
+  private f: Float64Array;
+  private n: Int32Array;
 
   constructor(capacity = 16) {
-    const n = Math.max(1, capacity);
-    this.stripS0 = new Float64Array(n);
-    this.stripS1 = new Float64Array(n);
-    this.sMin = new Float64Array(n);
-    this.sMax = new Float64Array(n);
-    this.vMin = new Float64Array(n);
-    this.vMax = new Float64Array(n);
-    this.slopeLengthFt = new Float64Array(n);
-    this.sProbe = new Float64Array(n);
-    this.clipLineS = new Float64Array(n);
-    this.lengthIn = new Int32Array(n);
-    this.bottomEdge = new Int32Array(n);
-    this.topEdge = new Int32Array(n);
+    const c = Math.max(1, capacity);
+    this.f = new Float64Array(c * NF);
+    this.n = new Int32Array(c * NI);
   }
 
-  /** Room for one more piece; returns its index. */
-  add(): number {
-    if (this.count === this.lengthIn.length) {
-      const n = this.count * 2;
-      for (const c of FLOAT_COLUMNS) {
-        const a = new Float64Array(n);
-        a.set(this[c]);
-        this[c] = a;
-      }
-      for (const c of INT_COLUMNS) {
-        const a = new Int32Array(n);
-        a.set(this[c]);
-        this[c] = a;
-      }
+  /** Appends one panel; returns its index. */
+  push(p: PanelPiece): number {
+    if (this.count * NI === this.n.length) {
+      const f = new Float64Array(this.f.length * 2);
+      f.set(this.f);
+      this.f = f;
+      const n = new Int32Array(this.n.length * 2);
+      n.set(this.n);
+      this.n = n;
     }
-    return this.count++;
+    const i = this.count++;
+    const o = i * NF;
+    const f = this.f;
+    f[o] = p.stripS0;
+    f[o + 1] = p.stripS1;
+    f[o + 2] = p.sMin;
+    f[o + 3] = p.sMax;
+    f[o + 4] = p.vMin;
+    f[o + 5] = p.vMax;
+    f[o + 6] = p.slopeLengthFt;
+    f[o + 7] = p.sProbe;
+    f[o + 8] = p.clipLineS;
+    const m = i * NI;
+    this.n[m] = p.lengthIn;
+    this.n[m + 1] = p.bottomEdge;
+    this.n[m + 2] = p.topEdge;
+    return i;
+  }
+
+  stripS0(i: number): number {
+    return this.f[i * NF];
+  }
+  stripS1(i: number): number {
+    return this.f[i * NF + 1];
+  }
+  sMin(i: number): number {
+    return this.f[i * NF + 2];
+  }
+  sMax(i: number): number {
+    return this.f[i * NF + 3];
+  }
+  vMin(i: number): number {
+    return this.f[i * NF + 4];
+  }
+  vMax(i: number): number {
+    return this.f[i * NF + 5];
+  }
+  slopeLengthFt(i: number): number {
+    return this.f[i * NF + 6];
+  }
+  sProbe(i: number): number {
+    return this.f[i * NF + 7];
+  }
+  clipLineS(i: number): number {
+    return this.f[i * NF + 8];
+  }
+  lengthIn(i: number): number {
+    return this.n[i * NI];
+  }
+  bottomEdge(i: number): number {
+    return this.n[i * NI + 1];
+  }
+  topEdge(i: number): number {
+    return this.n[i * NI + 2];
   }
 
   at(i: number): PanelPiece {
-    if (i < 0 || i >= this.count) throw new RangeError(`no panel ${i} (of ${this.count})`);
+    if (!(i >= 0 && i < this.count)) throw new RangeError(`no panel ${i} (of ${this.count})`);
     return {
-      stripS0: this.stripS0[i],
-      stripS1: this.stripS1[i],
-      sMin: this.sMin[i],
-      sMax: this.sMax[i],
-      vMin: this.vMin[i],
-      vMax: this.vMax[i],
-      slopeLengthFt: this.slopeLengthFt[i],
-      lengthIn: this.lengthIn[i],
-      bottomEdge: this.bottomEdge[i],
-      topEdge: this.topEdge[i],
-      sProbe: this.sProbe[i],
-      clipLineS: this.clipLineS[i],
+      stripS0: this.stripS0(i),
+      stripS1: this.stripS1(i),
+      sMin: this.sMin(i),
+      sMax: this.sMax(i),
+      vMin: this.vMin(i),
+      vMax: this.vMax(i),
+      slopeLengthFt: this.slopeLengthFt(i),
+      lengthIn: this.lengthIn(i),
+      bottomEdge: this.bottomEdge(i),
+      topEdge: this.topEdge(i),
+      sProbe: this.sProbe(i),
+      clipLineS: this.clipLineS(i),
     };
   }
 
@@ -142,6 +172,11 @@ export interface PanelOptions {
   start?: PanelStart;
   /** Added to every panel's length (eave hem + top hem), inches. Default 0. */
   hemAllowanceIn?: number;
+  /**
+   * Store the pieces here (emptied first) instead of in a new PanelPieces: a caller that lays out plane
+   * after plane and is done with each before the next passes one and saves an allocation per plane.
+   */
+  into?: PanelPieces;
 }
 
 /** Strip start positions (local s, ft) covering [sMin, sMax] in laying order. */
@@ -166,29 +201,34 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   const hem = opts.hemAllowanceIn ?? 0;
   const k = g.slopeFactor;
   const starts = stripStarts(g.sMin, g.sMax, w, start);
-  const pieces = new PanelPieces(starts.length);
+  const pieces = opts.into ?? new PanelPieces(starts.length);
+  pieces.count = 0;
   const convex = isConvex(g.local);
   const scratch: StripComponent = { sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 };
   let totalIn = 0;
   let longestIn = 0;
+  // One reusable record: push copies it into the packed arrays.
+  const rec: PanelPiece = { stripS0: 0, stripS1: 0, sMin: 0, sMax: 0, vMin: 0, vMax: 0, slopeLengthFt: 0, lengthIn: 0, bottomEdge: 0, topEdge: 0, sProbe: 0, clipLineS: 0 };
+  const lengthsIn: number[] = [];
   const add = (c: StripComponent, a: number, b: number) => {
     if (c.sMax - c.sMin <= TOL) return;
     const slopeLengthFt = k * (c.vMax - c.vMin);
     const seam = start === "right" ? b : a;
     const lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
-    const i = pieces.add();
-    pieces.stripS0[i] = a;
-    pieces.stripS1[i] = b;
-    pieces.sMin[i] = c.sMin;
-    pieces.sMax[i] = c.sMax;
-    pieces.vMin[i] = c.vMin;
-    pieces.vMax[i] = c.vMax;
-    pieces.slopeLengthFt[i] = slopeLengthFt;
-    pieces.lengthIn[i] = lengthIn;
-    pieces.bottomEdge[i] = c.bottomEdge;
-    pieces.topEdge[i] = c.topEdge;
-    pieces.sProbe[i] = c.sProbe;
-    pieces.clipLineS[i] = Math.min(Math.max(seam, c.sMin), c.sMax);
+    rec.stripS0 = a;
+    rec.stripS1 = b;
+    rec.sMin = c.sMin;
+    rec.sMax = c.sMax;
+    rec.vMin = c.vMin;
+    rec.vMax = c.vMax;
+    rec.slopeLengthFt = slopeLengthFt;
+    rec.lengthIn = lengthIn;
+    rec.bottomEdge = c.bottomEdge;
+    rec.topEdge = c.topEdge;
+    rec.sProbe = c.sProbe;
+    rec.clipLineS = Math.min(Math.max(seam, c.sMin), c.sMax);
+    pieces.push(rec);
+    lengthsIn.push(lengthIn);
     totalIn += lengthIn;
     if (lengthIn > longestIn) longestIn = lengthIn;
   };
@@ -200,10 +240,8 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
     } else for (const c of stripComponents(g.local, a, b)) add(c, a, b);
   }
   const n = pieces.count;
-  const lengthsIn: number[] = new Array(n);
-  for (let i = 0; i < n; i++) lengthsIn[i] = pieces.lengthIn[i];
   // Cut list: equal lengths grouped, longest first (a sorted copy, counted in one pass).
-  const sorted = pieces.lengthIn.slice(0, n).sort();
+  const sorted = Int32Array.from(lengthsIn).sort();
   const cutList: CutListEntry[] = [];
   for (let i = n - 1; i >= 0; ) {
     const l = sorted[i];

@@ -431,12 +431,12 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
   const up = g.up;
   const pp = panels.pieces;
   for (let pi = 0; pi < pp.count; pi++) {
-    const vMin = pp.vMin[pi];
-    const len = pp.vMax[pi] - vMin;
+    const vMin = pp.vMin(pi);
+    const len = pp.vMax(pi) - vMin;
     if (opts.system === "standing-seam") {
       const ns = segmentInto(
-        g.origin[0] + pp.clipLineS[pi] * g.right[0] + vMin * up[0],
-        g.origin[1] + pp.clipLineS[pi] * g.right[1] + vMin * up[1],
+        g.origin[0] + pp.clipLineS(pi) * g.right[0] + vMin * up[0],
+        g.origin[1] + pp.clipLineS(pi) * g.right[1] + vMin * up[1],
         up,
         len,
         roof,
@@ -464,7 +464,7 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       clipsPerPanel.push(n);
       clips += n;
     } else {
-      const sc = (pp.sMin[pi] + pp.sMax[pi]) / 2;
+      const sc = (pp.sMin(pi) + pp.sMax(pi)) / 2;
       const ns = segmentInto(g.origin[0] + sc * g.right[0] + vMin * up[0], g.origin[1] + sc * g.right[1] + vMin * up[1], up, len, roof, opts.model);
       for (let i = 0; i < ns; i++) {
         const z = SEG_ZONE[i];
