@@ -78,7 +78,8 @@ export function leastDimensionOfOutlines(outlines: readonly (readonly Pt[])[]): 
  */
 export function withinDistanceInterval(p0: Pt, d: Pt, a: Pt, b: Pt, r: number): [number, number] | null {
   const out = INTERVAL_SCRATCH;
-  return intervalInto(p0[0], p0[1], d[0], d[1], a[0], a[1], b[0], b[1], r, out, 0) ? [out[0], out[1]] : null;
+  const v = prepare({ edges: [{ a, b, dir: [0, 0] }], corners: [] }, d[0], d[1]);
+  return intervalPrepared(p0[0], p0[1], d[0], d[1], v, 0, r, out, 0) ? [out[0], out[1]] : null;
 }
 
 const INTERVAL_SCRATCH = new Float64Array(2);
@@ -103,48 +104,6 @@ function clipSlab(q0: number, dq: number, min: number, max: number, out: Float64
   if (tb < out[i + 1]) out[i + 1] = tb;
 }
 
-/**
- * Allocation-free core of withinDistanceInterval: writes [lo, hi] into out[i], out[i+1] and returns
- * whether the interval is non-empty.
- */
-function intervalInto(px: number, py: number, dx: number, dy: number, ax: number, ay: number, bx: number, by: number, r: number, out: Float64Array, i: number): boolean {
-  let lo = Infinity;
-  let hi = -Infinity;
-  // End disks.
-  for (let e = 0; e < 2; e++) {
-    const fx = px - (e ? bx : ax);
-    const fy = py - (e ? by : ay);
-    const B = dx * fx + dy * fy;
-    const disc = B * B - (fx * fx + fy * fy - r * r);
-    if (disc >= 0) {
-      const sq = Math.sqrt(disc);
-      if (-B - sq < lo) lo = -B - sq;
-      if (-B + sq > hi) hi = -B + sq;
-    }
-  }
-  // Middle rectangle: u along ab in [0, L], w across it in [−r, r].
-  const L = Math.sqrt((bx - ax) * (bx - ax) + (by - ay) * (by - ay));
-  if (L > 0) {
-    const ux = (bx - ax) / L;
-    const uy = (by - ay) / L;
-    const u0 = (px - ax) * ux + (py - ay) * uy;
-    const du = dx * ux + dy * uy;
-    const w0 = -(px - ax) * uy + (py - ay) * ux;
-    const dw = -dx * uy + dy * ux;
-    out[i] = -Infinity;
-    out[i + 1] = Infinity;
-    clipSlab(u0, du, 0, L, out, i);
-    clipSlab(w0, dw, -r, r, out, i);
-    if (out[i] <= out[i + 1]) {
-      if (out[i] < lo) lo = out[i];
-      if (out[i + 1] > hi) hi = out[i + 1];
-    }
-  }
-  out[i] = lo;
-  out[i + 1] = hi;
-  return lo <= hi;
-}
-
 export interface ZoneModel {
   kind: "steep" | "low-slope";
   aFt: number;
@@ -158,12 +117,93 @@ interface RoofEdge {
   a: Pt;
   b: Pt;
   dir: Pt;
-  /** Extent across a family of parallel lines (projection on the lines' normal), for a quick reject. */
-  across?: [number, number];
+}
+
+/**
+ * A plane's roof edges as seen from a family of parallel lines (direction dx, dy), worked out once for all
+ * the lines of a plane. Per edge, PREP numbers: a, b, the unit vector u along the edge, its length L, the
+ * line direction's components along and across u, and the edge's extent across the lines.
+ */
+const PREP = 11;
+interface RoofEdges {
+  edges: RoofEdge[];
+  corners: [number, number][];
+  prepared?: { dx: number; dy: number; v: Float64Array };
+}
+
+function prepare(roof: RoofEdges, dx: number, dy: number): Float64Array {
+  const p = roof.prepared;
+  if (p && p.dx === dx && p.dy === dy) return p.v;
+  const v = new Float64Array(roof.edges.length * PREP);
+  roof.edges.forEach((ed, e) => {
+    const o = e * PREP;
+    const ax = ed.a[0], ay = ed.a[1], bx = ed.b[0], by = ed.b[1];
+    v[o] = ax;
+    v[o + 1] = ay;
+    v[o + 2] = bx;
+    v[o + 3] = by;
+    const L = Math.sqrt((bx - ax) * (bx - ax) + (by - ay) * (by - ay));
+    v[o + 6] = L;
+    if (L > 0) {
+      const ux = (bx - ax) / L;
+      const uy = (by - ay) / L;
+      v[o + 4] = ux;
+      v[o + 5] = uy;
+      v[o + 7] = dx * ux + dy * uy;
+      v[o + 8] = -dx * uy + dy * ux;
+    }
+    const pa = ax * dy - ay * dx;
+    const pb = bx * dy - by * dx;
+    v[o + 9] = Math.min(pa, pb);
+    v[o + 10] = Math.max(pa, pb);
+  });
+  roof.prepared = { dx, dy, v };
+  return v;
+}
+
+/**
+ * Interval of t along the line p + t·d within distance r of a prepared edge (offset o in v), written into
+ * out[i], out[i+1]; returns whether it is non-empty. Allocation-free: the union of the line's intervals in
+ * the two end disks and the middle rectangle (u along the edge in [0, L], across it in [−r, r]).
+ */
+function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let e = 0; e < 2; e++) {
+    const fx = px - v[o + 2 * e];
+    const fy = py - v[o + 2 * e + 1];
+    const B = dx * fx + dy * fy;
+    const disc = B * B - (fx * fx + fy * fy - r * r);
+    if (disc >= 0) {
+      const sq = Math.sqrt(disc);
+      if (-B - sq < lo) lo = -B - sq;
+      if (-B + sq > hi) hi = -B + sq;
+    }
+  }
+  const L = v[o + 6];
+  if (L > 0) {
+    const ax = v[o];
+    const ay = v[o + 1];
+    const ux = v[o + 4];
+    const uy = v[o + 5];
+    const u0 = (px - ax) * ux + (py - ay) * uy;
+    const w0 = -(px - ax) * uy + (py - ay) * ux;
+    out[i] = -Infinity;
+    out[i + 1] = Infinity;
+    clipSlab(u0, v[o + 7], 0, L, out, i);
+    clipSlab(w0, v[o + 8], -r, r, out, i);
+    if (out[i] <= out[i + 1]) {
+      if (out[i] < lo) lo = out[i];
+      if (out[i + 1] > hi) hi = out[i + 1];
+    }
+  }
+  out[i] = lo;
+  out[i + 1] = hi;
+  return lo <= hi;
 }
 
 /** The roof edges of a plane and its corner pairs (two roof edges meeting at a corner, not in line). */
-export function planeRoofEdges(pieces: EdgePiece[]): { edges: RoofEdge[]; corners: [number, number][] } {
+export function planeRoofEdges(pieces: EdgePiece[]): RoofEdges {
   const edges: RoofEdge[] = [];
   for (const pc of pieces) {
     if (!ROOF_EDGE_TYPES.has(pc.type)) continue;
@@ -201,7 +241,7 @@ export function zoneSegmentsAlong(
   p0: Pt,
   d: Pt,
   len: number,
-  roof: { edges: RoofEdge[]; corners: [number, number][] },
+  roof: RoofEdges,
   model: ZoneModel,
 ): ZoneSegment[] {
   const n = segmentInto(p0[0], p0[1], d, len, roof, model);
@@ -221,7 +261,7 @@ let SEG_LEN = new Float64Array(64);
  * Allocation-free core of zoneSegmentsAlong: writes merged segments into SEG_ZONE / SEG_LEN and returns
  * how many there are.
  */
-function segmentInto(px: number, py: number, d: Pt, len: number, roof: { edges: RoofEdge[]; corners: [number, number][] }, model: ZoneModel): number {
+function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges, model: ZoneModel): number {
   if (!(len > 0)) return 0;
   const steep = model.kind === "steep";
   const r2 = steep ? model.aFt : 0.6 * model.h!;
@@ -242,10 +282,11 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: { edges: 
   const dy = d[1];
   const rMax = Math.max(r1, r2, r3);
   const across = px * dy - py * dx; // the line's position across its direction
+  const prep = prepare(roof, dx, dy);
   for (let e = 0; e < ne; e++) {
-    const ed = roof.edges[e];
     const o = e * 6;
-    if (ed.across && (across < ed.across[0] - rMax || across > ed.across[1] + rMax)) {
+    const po = e * PREP;
+    if (across < prep[po + 9] - rMax || across > prep[po + 10] + rMax) {
       // farther than any zone width from this edge, measured across the line
       for (let k = 0; k < 6; k += 2) {
         iv[o + k] = Infinity;
@@ -262,7 +303,7 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: { edges: 
         iv[ok + 1] = iv[o + 1];
         continue;
       }
-      if (!(r > 0) || !intervalInto(px, py, dx, dy, ed.a[0], ed.a[1], ed.b[0], ed.b[1], r, iv, ok)) {
+      if (!(r > 0) || !intervalPrepared(px, py, dx, dy, prep, po, r, iv, ok)) {
         iv[ok] = Infinity;
         iv[ok + 1] = -Infinity;
         continue;
@@ -402,13 +443,8 @@ export function spacingOverBattens(requiredIn: number, battenSpacingIn: number |
  * × screws per square.
  */
 export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: PanelLayout, opts: PlaneFastenerOptions): PlaneWindZones {
+  // Every line runs up the slope: the edges are prepared for that direction once (see `prepare`).
   const roof = planeRoofEdges(pieces);
-  // Every line runs up the slope: project the edges across it once for the quick reject.
-  for (const e of roof.edges) {
-    const pa = e.a[0] * g.up[1] - e.a[1] * g.up[0];
-    const pb = e.b[0] * g.up[1] - e.b[1] * g.up[0];
-    e.across = [Math.min(pa, pb), Math.max(pa, pb)];
-  }
   const k = g.slopeFactor;
   const w = panels.coverageWidthIn / 12;
   const zones: Record<WindZone, ZoneCounts> = {
