@@ -11,6 +11,8 @@ export function fmt(n: number, digits = 1): string {
 /** Up to `digits` decimals, trailing zeros dropped (12 → "12", 3.5 → "3.5"). */
 export function num(n: number, digits = 2): string {
   const r = Number(n.toFixed(digits));
+  // Under 1,000 the shortest form is already the text (no separator, no exponent after rounding).
+  if (Math.abs(r) < 1000) return String(r);
   return fmt(r, (r.toString().split(".")[1] ?? "").length);
 }
 

@@ -79,6 +79,9 @@ export interface TakeoffOptions {
   planeIds?: readonly string[];
 }
 
+/** Materials are listed in the order of MATERIAL_KEYS. */
+const MATERIAL_RANK = new Map(Object.keys(MATERIAL_KEYS).map((k, i) => [k, i]));
+
 const zeroZone = (): ZoneFasteners => ({ clips: 0, clipScrews: 0, panelScrews: 0, lineFt: 0, areaSqFt: 0 });
 
 function underlaymentKey(stack: StackInput): MaterialKey {
@@ -756,8 +759,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       lines.push(materialLine("vent-intake", q, `eaves ${fmt(vent.result.intakeLf)} lf → ${q} lf`));
     }
   }
-  const order = Object.keys(MATERIAL_KEYS);
-  lines.sort((a, b) => order.indexOf(a.key) - order.indexOf(b.key));
+  lines.sort((a, b) => MATERIAL_RANK.get(a.key)! - MATERIAL_RANK.get(b.key)!);
 
   // ---- result -----------------------------------------------------------------------------------------
   const fasteners: FastenersResult = { clips, clipScrews, panelScrews, trimFasteners, spacerFasteners, zones };
