@@ -464,6 +464,10 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
   let panelScrews = 0;
   const zoneList = [zones["1'"], zones["1"], zones["2"], zones["3"]];
   const keyOf = ["field", "field", "edge", "corner"] as const;
+  // By zone code (1', 1, 2, 3): the spacing used, the spacing asked for, exposed-fastener screws per square.
+  const spacingOf = keyOf.map((key) => spacing[key]);
+  const limitedOf = keyOf.map((key) => opts.battenSpacingIn !== null && opts.battenSpacingIn > 0 && opts.clipSpacingIn[key] < opts.battenSpacingIn - 1e-9);
+  const screwsOf = keyOf.map((key) => opts.screwsPerSquare[key]);
   const up = g.up;
   const pp = panels.pieces;
   for (let pi = 0; pi < pp.count; pi++) {
@@ -484,14 +488,13 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       let runStart = 0;
       for (let i = 0; i < ns; i++) {
         const z = SEG_ZONE[i];
-        const key = keyOf[z];
-        if (opts.battenSpacingIn && opts.clipSpacingIn[key] < opts.battenSpacingIn - 1e-9) limited.add(ZONE_BY_CODE[z]);
+        if (limitedOf[z]) limited.add(ZONE_BY_CODE[z]);
         zoneList[z].lineFt += SEG_LEN[i] * k;
-        const last = i === ns - 1 || Math.abs(spacing[keyOf[SEG_ZONE[i + 1]]] - spacing[key]) >= 1e-9;
+        const last = i === ns - 1 || Math.abs(spacingOf[SEG_ZONE[i + 1]] - spacingOf[z]) >= 1e-9;
         if (!last) continue;
         let runFt = 0;
         for (let j = runStart; j <= i; j++) runFt += SEG_LEN[j];
-        const c = ceilTol((runFt * k * 12) / spacing[key]);
+        const c = ceilTol((runFt * k * 12) / spacingOf[z]);
         n += c;
         if (runStart === i) zoneList[z].clips += c;
         else distribute(c, runStart, i, runFt, zoneList);
@@ -505,7 +508,7 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       for (let i = 0; i < ns; i++) {
         const z = SEG_ZONE[i];
         const area = w * SEG_LEN[i] * k;
-        const screws = (area / 100) * opts.screwsPerSquare[keyOf[z]];
+        const screws = (area / 100) * screwsOf[z];
         zoneList[z].areaSqFt += area;
         zoneList[z].lineFt += SEG_LEN[i] * k;
         zoneList[z].panelScrews += screws;
