@@ -1,7 +1,7 @@
 import { Router, type Request } from "express";
 import { auditListQuerySchema } from "../../shared/schemas/audit";
 import { jobAssignmentSchema, jobInputSchema, jobListQuerySchema, jobUpdateSchema } from "../../shared/schemas/job";
-import { roofSaveSchema } from "../../shared/schemas/roof";
+import { roofSaveSchema, type RoofSave } from "../../shared/schemas/roof";
 import type { AppContext } from "../app";
 import { requireAuth, requireRole } from "../middleware/require-auth";
 import { presentAuditEvent } from "../presenters/audit.presenter";
@@ -79,9 +79,18 @@ export function jobsRouter(ctx: Pick<AppContext, "sequelize">): Router {
 
   router.put("/:id/roof", office, async (req, res) => {
     const id = jobIdOf(req);
-    await jobs.assertVisible(id, req.user!);
-    const input = roofSaveSchema.parse(requireBody(req));
-    res.json({ data: await roofs.save(id, input, req.user!) });
+    let input: RoofSave;
+    try {
+      input = roofSaveSchema.parse(requireBody(req));
+    } catch (err) {
+      // A job the actor cannot see answers 404 whatever the body; the save itself checks it for a valid body
+      // (in the statement that locks the job), so a good save reads the job once.
+      await jobs.assertVisible(id, req.user!);
+      throw err;
+    }
+    // `{ data: saved roof }`, the JSON put together by the service from the parts it serialised for the database.
+    const { json } = await roofs.saveWithJson(id, input, req.user!);
+    res.set("Content-Type", "application/json").send(`{"data":${json}}`);
   });
 
   /** `{ data: takeoff }`, the engine's result stored with the roof; `{ data: null }` before the first save. */

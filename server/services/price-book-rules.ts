@@ -17,6 +17,7 @@ import { MATERIAL_KEYS, type MaterialKey } from "../../shared/engine/materials";
 import type { PriceBook, PriceBookItem, PitchBand, PricingSettings } from "../../shared/pricing/price-quote";
 import type { CatalogItemAttributes } from "../../shared/schemas/price-book";
 import { CatalogItem, CatalogItemPrice, LaborRate } from "../models/index";
+import { executeBinary } from "../db/sql";
 import { getPricingSettings } from "./pricing-settings";
 
 export interface RuleSourceItem {
@@ -177,30 +178,20 @@ async function activeMappedItems(companyId: number, transaction?: Transaction) {
 }
 
 
-/**
- * The active mapped items as rule sources, read with one plain query: every roof save and every preview
- * takeoff reads them, so only the columns the rules use are read and no model objects are built.
- */
-async function ruleSourceItems(companyId: number, transaction?: Transaction): Promise<RuleSourceItem[]> {
-  const sequelize = CatalogItem.sequelize!;
-  const rows = await sequelize.query<{
-    id: number;
-    sku: string;
-    materialKey: string;
-    purchaseUnit: string;
-    coverageUnit: string;
-    packCoverage: string | number;
-    wastePct: string | number | null;
-    attributes: unknown;
-  }>(
-    `SELECT id, sku, material_key AS materialKey, purchase_unit AS purchaseUnit, coverage_unit AS coverageUnit,
-            pack_coverage AS packCoverage, waste_pct AS wastePct, attributes
-       FROM catalog_items
-      WHERE company_id = ? AND active = 1 AND material_key IS NOT NULL
-      ORDER BY id`,
-    { replacements: [companyId], type: QueryTypes.SELECT, raw: true, transaction },
-  );
-  return rows.map((r) => ({
+/** A rule source item as the database hands it back (decimals may come as text, JSON as text or parsed). */
+interface RuleSourceRow {
+  id: number | string;
+  sku: string;
+  materialKey: string;
+  purchaseUnit: string;
+  coverageUnit: string;
+  packCoverage: string | number;
+  wastePct: string | number | null;
+  attributes: unknown;
+}
+
+function toRuleSourceItem(r: RuleSourceRow): RuleSourceItem {
+  return {
     id: Number(r.id),
     sku: r.sku,
     materialKey: r.materialKey,
@@ -210,7 +201,26 @@ async function ruleSourceItems(companyId: number, transaction?: Transaction): Pr
     wastePct: r.wastePct === null ? null : Number(r.wastePct),
     // The mariadb driver may hand JSON back as text.
     attributes: (typeof r.attributes === "string" ? JSON.parse(r.attributes) : (r.attributes ?? {})) as CatalogItemAttributes,
-  }));
+  };
+}
+
+/**
+ * The active mapped items as rule sources, read with one plain query: every roof save and every preview
+ * takeoff reads them, so only the columns the rules use are read and no model objects are built.
+ */
+const RULE_SOURCE_ITEMS_SQL = `SELECT id, sku, material_key AS materialKey, purchase_unit AS purchaseUnit, coverage_unit AS coverageUnit,
+            pack_coverage AS packCoverage, waste_pct AS wastePct, attributes
+       FROM catalog_items
+      WHERE company_id = ? AND active = 1 AND material_key IS NOT NULL
+      ORDER BY id`;
+
+export async function ruleSourceItems(companyId: number, transaction?: Transaction): Promise<RuleSourceItem[]> {
+  const sequelize = CatalogItem.sequelize!;
+  // In a transaction (every roof save) on its connection with the binary protocol, without Sequelize's query layer.
+  const rows = transaction
+    ? await executeBinary<RuleSourceRow[]>(sequelize, transaction, RULE_SOURCE_ITEMS_SQL, [companyId])
+    : await sequelize.query<RuleSourceRow>(RULE_SOURCE_ITEMS_SQL, { replacements: [companyId], type: QueryTypes.SELECT, raw: true });
+  return rows.map(toRuleSourceItem);
 }
 
 /** The full build (rules, where each value came from, conflicts), for the mapping page. */

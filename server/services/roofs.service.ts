@@ -1,14 +1,28 @@
-import { QueryTypes, UniqueConstraintError, literal, type Sequelize, type Transaction } from "sequelize";
+import { UniqueConstraintError, type Sequelize, type Transaction } from "sequelize";
 import type { RoofDocument, RoofDto, RoofSave } from "../../shared/schemas/roof";
 import { Roof } from "../models/index";
-import { conflict } from "../errors";
+import { executeBinary, sqlDateTime } from "../db/sql";
+import { conflict, notFound } from "../errors";
 import { presentRoof, presentRoofDocument } from "../presenters/roof.presenter";
 import { parseJsonColumn } from "../presenters/job.presenter";
 import { recordAudit } from "./audit.service";
 import { JobsService } from "./jobs.service";
-import { computeStoredTakeoff, takeoffSquares, type StoredTakeoff } from "./roof-takeoff";
+import { rulesFromItems, ruleSourceItems } from "./price-book-rules";
+import { computeStoredTakeoffOfParsed, takeoffSquares, type StoredTakeoff } from "./roof-takeoff";
 
 type Actor = Express.User;
+
+/** What a roof save answers: the saved document with its new version, and the takeoff stored with it. */
+export type SavedRoof = RoofDto & { takeoff: StoredTakeoff };
+
+/** The save's first statement: the locked job row and what the save reads beside it. */
+interface LockedJobRow {
+  status: string;
+  archived: number | string;
+  site: unknown;
+  roofVersion: number | string | null;
+  storedUnderlay: unknown;
+}
 
 const stale = (currentVersion: number) =>
   conflict("stale_version", "Someone saved this roof after you opened it; reload to see their changes, then apply yours", {
@@ -43,7 +57,16 @@ export class RoofsService {
    * the saved document, the job's site and the company's rules; jobs.squares follows it, and a lead
    * becomes estimating with its first roof. One transaction, with the audit rows.
    */
-  async save(jobId: number, input: RoofSave, actor: Actor): Promise<RoofDto & { takeoff: StoredTakeoff }> {
+  async save(jobId: number, input: RoofSave, actor: Actor): Promise<SavedRoof> {
+    return (await this.saveWithJson(jobId, input, actor)).saved;
+  }
+
+  /**
+   * `save`, with the answer's JSON text as well (what `JSON.stringify` gives for `saved`), built from the
+   * parts serialised once for the stored document and takeoff: PUT /api/jobs/:id/roof sends it as it is
+   * instead of serialising 50 KB a second time.
+   */
+  async saveWithJson(jobId: number, input: RoofSave, actor: Actor): Promise<{ saved: SavedRoof; json: string }> {
     try {
       return await this.sequelize.transaction((t) => this.saveIn(jobId, input, actor, t));
     } catch (err) {
@@ -56,44 +79,73 @@ export class RoofsService {
     }
   }
 
-  private async saveIn(jobId: number, input: RoofSave, actor: Actor, transaction: Transaction) {
-    // Locks the job row: saves of one roof (and site edits) run one after another.
-    const job = await this.jobs.get(jobId, actor, transaction);
-    if (job.archivedAt) throw conflict("archived", "This job is archived; restore it to make changes");
-    // Only the version, and the stored underlay when the save leaves it out (never the whole document and
-    // takeoff, which are large and about to be replaced).
-    const existing = await Roof.findOne({
-      where: { jobId },
-      attributes: ["id", "version", ...(input.underlay === undefined ? [[literal("JSON_EXTRACT(document, '$.underlay')"), "storedUnderlay"] as [ReturnType<typeof literal>, string]] : [])],
-      transaction,
-    });
-    const currentVersion = existing?.version ?? 0;
+  private async saveIn(jobId: number, input: RoofSave, actor: Actor, transaction: Transaction): Promise<{ saved: SavedRoof; json: string }> {
+    const keepUnderlay = input.underlay === undefined;
+    const crew = actor.role === "crew";
+    // The job row, locked (saves of one roof and site edits run one after another), with what the save needs of
+    // the stored roof: its version, and its underlay when the save leaves it out (never the whole document and
+    // takeoff, which are large and about to be replaced). The subqueries take no row locks and run once the lock
+    // is granted, so they see what the save before this one committed. A job the actor may not see is 404, as
+    // JobsService.get. The company's price-book items (for the engine's rules) are asked for in the same round
+    // trip: the driver sends both statements at once and the database runs them in turn.
+    const [[job], ruleItems] = await Promise.all([
+      executeBinary<LockedJobRow[]>(
+        this.sequelize,
+        transaction,
+        `SELECT j.status, j.archived_at IS NOT NULL AS archived, j.site,
+                (SELECT r.version FROM roofs r WHERE r.job_id = j.id) AS roofVersion,
+                ${keepUnderlay ? "(SELECT JSON_EXTRACT(r.document, '$.underlay') FROM roofs r WHERE r.job_id = j.id)" : "NULL"} AS storedUnderlay
+           FROM jobs j
+          WHERE j.id = ? AND j.company_id = ?${crew ? " AND j.archived_at IS NULL AND EXISTS (SELECT 1 FROM job_crew jc WHERE jc.job_id = j.id AND jc.user_id = ?)" : ""}
+            FOR UPDATE`,
+        crew ? [jobId, actor.companyId, actor.id] : [jobId, actor.companyId],
+      ),
+      ruleSourceItems(actor.companyId, transaction),
+    ]);
+    if (!job) throw notFound("Job");
+    if (Number(job.archived)) throw conflict("archived", "This job is archived; restore it to make changes");
+    const existing = job.roofVersion !== null && job.roofVersion !== undefined;
+    const currentVersion = existing ? Number(job.roofVersion) : 0;
     if (input.version !== currentVersion) throw stale(currentVersion);
 
-    const storedUnderlay = existing?.get("storedUnderlay" as "id") as unknown;
+    const storedUnderlay = job.storedUnderlay;
     const kept = storedUnderlay === null || storedUnderlay === undefined ? undefined : parseJsonColumn<RoofDocument["underlay"]>(storedUnderlay);
-    const underlay = input.underlay === undefined ? (kept ?? undefined) : (input.underlay ?? undefined);
+    const underlay = keepUnderlay ? (kept ?? undefined) : (input.underlay ?? undefined);
     const document: RoofDocument = {
       planes: input.planes,
       stacks: input.stacks,
       defaultStackId: input.defaultStackId,
       ...(underlay ? { underlay } : {}),
     };
-    const takeoff = await computeStoredTakeoff(document, parseJsonColumn(job.site), actor.companyId, transaction);
+    // The planes and stacks were parsed and cross-checked by roofSaveSchema: the engine takes them as they are.
+    const rules = rulesFromItems(ruleItems).rules;
+    const takeoff = computeStoredTakeoffOfParsed(document, parseJsonColumn(job.site), rules);
+    const now = sqlDateTime(new Date());
+    // Each part serialised once: the stored document is `JSON.stringify(document)` and the answer
+    // `JSON.stringify({ ...presentRoofDocument(document, version), takeoff })`, both put together from these.
+    const parts = {
+      planes: JSON.stringify(document.planes),
+      stacks: JSON.stringify(document.stacks),
+      defaultStackId: JSON.stringify(document.defaultStackId),
+      underlay: document.underlay ? `,"underlay":${JSON.stringify(document.underlay)}` : "",
+      takeoff: JSON.stringify(takeoff),
+    };
+    const head = `{"planes":${parts.planes},"stacks":${parts.stacks},"defaultStackId":${parts.defaultStackId}`;
 
     let version: number;
     if (!existing) {
       await Roof.create({ jobId, companyId: actor.companyId, version: 1, document, takeoff }, { transaction });
       version = 1;
     } else {
-      // One plain UPDATE, guarded by the version read above (the job row lock already serialises saves).
-      const affected = Number(
-        await this.sequelize.query(
-          "UPDATE roofs SET document = ?, takeoff = ?, version = version + 1, updated_at = ? WHERE job_id = ? AND version = ?",
-          { replacements: [JSON.stringify(document), JSON.stringify(takeoff), new Date(), jobId, input.version], type: QueryTypes.BULKUPDATE, transaction },
-        ),
+      // One plain UPDATE, guarded by the version read above (the job row lock already serialises saves); the
+      // 56 KB of JSON go as binary-protocol values rather than escaped into the SQL text.
+      const written = await executeBinary(
+        this.sequelize,
+        transaction,
+        "UPDATE roofs SET document = ?, takeoff = ?, version = version + 1, updated_at = ? WHERE job_id = ? AND version = ?",
+        [`${head}${parts.underlay}}`, parts.takeoff, now, jobId, input.version],
       );
-      if (affected !== 1) {
+      if (Number(written.affectedRows) !== 1) {
         const current = await Roof.findOne({ where: { jobId }, attributes: ["version"], transaction });
         throw stale(current?.version ?? 0);
       }
@@ -101,9 +153,8 @@ export class RoofsService {
     }
 
     const squares = takeoffSquares(takeoff);
-    job.squares = squares;
-    job.changed("updatedAt", true);
-    await job.save({ transaction });
+    // What `job.save()` wrote for the job (its squares and updated time), without a model object.
+    await executeBinary(this.sequelize, transaction, "UPDATE jobs SET squares = ?, updated_at = ? WHERE id = ?", [squares, now, jobId]);
     await recordAudit(
       {
         companyId: actor.companyId,
@@ -122,8 +173,14 @@ export class RoofsService {
       },
       transaction,
     );
-    if (job.status === "lead") await this.jobs.applyStatus(job, "estimating", "first roof saved", actor, transaction);
+    if (job.status === "lead") {
+      // Once per job: the status move goes through the jobs service (its own audit row) with the job's model.
+      await this.jobs.applyStatus(await this.jobs.get(jobId, actor, transaction), "estimating", "first roof saved", actor, transaction);
+    }
 
-    return { ...presentRoofDocument(document, version), takeoff };
+    return {
+      saved: { ...presentRoofDocument(document, version), takeoff },
+      json: `${head},"version":${version}${parts.underlay},"takeoff":${parts.takeoff}}`,
+    };
   }
 }

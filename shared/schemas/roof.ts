@@ -9,7 +9,7 @@
  * `underlay` left out keeps the stored one; `underlay: null` removes it.
  */
 import { z } from "zod";
-import { MAX_ID_LENGTH, MAX_PLANES, MAX_STACKS, planeSchema, stackSchema, takeoffInputSchema } from "./takeoff";
+import { checkRoofShape, MAX_ID_LENGTH, MAX_PLANES, MAX_STACKS, planeSchema, stackSchema } from "./takeoff";
 
 /**
  * A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file);
@@ -58,13 +58,8 @@ export const roofSaveSchema = z
     version: z.number({ error: "Required" }).int("Must be a whole number").min(0, "Must be 0 or more"),
     underlay: underlaySchema.nullable().optional(),
   })
-  .superRefine((v, ctx) => {
-    const checked = takeoffInputSchema.safeParse({ planes: v.planes, stacks: v.stacks, defaultStackId: v.defaultStackId });
-    if (checked.success) return;
-    for (const issue of checked.error.issues) {
-      ctx.addIssue({ code: "custom", message: issue.message, path: issue.path as (string | number)[] });
-    }
-  });
+  // The takeoff input's cross-checks, on the planes and stacks parsed above (not parsed a second time).
+  .superRefine(checkRoofShape);
 export type RoofSave = z.output<typeof roofSaveSchema>;
 export type RoofSaveValues = z.input<typeof roofSaveSchema>;
 

@@ -352,13 +352,22 @@ const baseShape = {
   rules: rulesSchema,
 };
 
-type BaseOut = {
+/** The parsed planes, stacks and default assembly the cross-checks look at. */
+export type RoofShapeParsed = {
   planes: z.output<typeof planeSchema>[];
   stacks: z.output<typeof stackSchema>[];
   defaultStackId: string;
 };
 
-function checkInput(v: BaseOut, ctx: z.RefinementCtx) {
+/**
+ * The cross-checks of a roof whose fields are already parsed (duplicate ids, unknown assemblies, an eave edge
+ * or edge type out of range, outlines that cross themselves, have no area or dip below the eave line), as
+ * issues with the field paths the forms show. The takeoff input runs them after parsing; a schema that
+ * parses the same planes and stacks itself (the roof save) calls this on its own parsed values instead of
+ * parsing them a second time. Each plane's geometry is worked out once per parsed plane object
+ * (`planeGeometryOfParsed`), so the engine reuses it when it gets the same objects.
+ */
+export function checkRoofShape(v: RoofShapeParsed, ctx: z.RefinementCtx): void {
   const stackIds = new Set<string>();
   v.stacks.forEach((s, i) => {
     if (stackIds.has(s.id)) ctx.addIssue({ code: "custom", message: "Duplicate assembly id", path: ["stacks", i, "id"] });
@@ -391,7 +400,7 @@ function checkInput(v: BaseOut, ctx: z.RefinementCtx) {
   });
 }
 
-export const takeoffInputSchema = z.object(baseShape).superRefine(checkInput);
+export const takeoffInputSchema = z.object(baseShape).superRefine(checkRoofShape);
 export type TakeoffInput = z.output<typeof takeoffInputSchema>;
 export type TakeoffInputRaw = z.input<typeof takeoffInputSchema>;
 export type PlaneInput = TakeoffInput["planes"][number];
@@ -401,7 +410,7 @@ export type SiteInput = TakeoffInput["site"];
 export const gapStudyInputSchema = z
   .object({ ...baseShape, planeIds: z.array(id, { error: "Required" }).min(1, "Choose at least one plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`) })
   .superRefine((v, ctx) => {
-    checkInput(v, ctx);
+    checkRoofShape(v, ctx);
     const known = new Set(v.planes.map((p) => p.id));
     v.planeIds.forEach((pid, i) => {
       if (!known.has(pid)) ctx.addIssue({ code: "custom", message: `Unknown plane "${pid}"`, path: ["planeIds", i] });
