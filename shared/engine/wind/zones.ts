@@ -256,6 +256,7 @@ let IV = new Float64Array(64);
 let CUTS = new Float64Array(64);
 let SEG_ZONE = new Int8Array(64);
 let SEG_LEN = new Float64Array(64);
+let ACTIVE_CORNERS = new Int32Array(16);
 
 /**
  * Allocation-free core of zoneSegmentsAlong: writes merged segments into SEG_ZONE / SEG_LEN and returns
@@ -323,16 +324,27 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
     }
     cuts[j + 1] = x;
   }
+  // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   const corners = roof.corners;
+  if (ACTIVE_CORNERS.length < corners.length * 2) ACTIVE_CORNERS = new Int32Array(corners.length * 4);
+  let na = 0;
+  for (let q = 0; q < corners.length; q++) {
+    const i = corners[q][0] * 6;
+    const j = corners[q][1] * 6;
+    if ((iv[i] <= iv[i + 1] || iv[i + 2] <= iv[i + 3]) && (iv[j] <= iv[j + 1] || iv[j + 2] <= iv[j + 3])) {
+      ACTIVE_CORNERS[na++] = i;
+      ACTIVE_CORNERS[na++] = j;
+    }
+  }
   let ns = 0;
   for (let c = 0; c + 1 < nc; c++) {
     const seg = cuts[c + 1] - cuts[c];
     if (seg <= 1e-9) continue;
     const t = (cuts[c] + cuts[c + 1]) / 2;
     let in3 = false;
-    for (let q = 0; q < corners.length && !in3; q++) {
-      const i = corners[q][0] * 6;
-      const j = corners[q][1] * 6;
+    for (let q = 0; q < na && !in3; q += 2) {
+      const i = ACTIVE_CORNERS[q];
+      const j = ACTIVE_CORNERS[q + 1];
       const i2 = iv[i] <= t && t <= iv[i + 1];
       const i3 = iv[i + 2] <= t && t <= iv[i + 3];
       const j2 = iv[j] <= t && t <= iv[j + 1];
