@@ -1,6 +1,7 @@
 import session from "express-session";
 import connectSessionSequelize from "connect-session-sequelize";
-import { QueryTypes, type Sequelize } from "sequelize";
+import type { Sequelize } from "sequelize";
+import { selectRows, sqlDateTime } from "./db/sql";
 import type { Role } from "../shared/auth/roles";
 
 const SequelizeStore = connectSessionSequelize(session.Store);
@@ -34,11 +35,11 @@ const MAX_PREFETCHED = 5_000;
 /**
  * Sessions live in MariaDB (`sessions`), each row tagged with its user so deactivation can end them.
  *
- * Reading a session is the one query every signed-in request makes, so it is a single raw SELECT that
- * also brings the session's user (a LEFT JOIN on `users`): Passport's deserializer then takes that row
- * (`takeUser`) instead of querying again. The user is still read fresh on every request, so a
- * deactivation or a role change takes effect at once. Expired rows are never returned, even before the
- * periodic clean-up deletes them.
+ * Reading a session is the one query every signed-in request makes, so it is a single SELECT straight through
+ * the driver (`selectRows`: no Sequelize row handling) that also brings the session's user (a LEFT
+ * JOIN on `users`): Passport's deserializer then takes that row (`takeUser`) instead of querying again.
+ * The user is still read fresh on every request, so a deactivation or a role change takes effect at once.
+ * Expired rows are never returned, even before the periodic clean-up deletes them.
  */
 export class SessionStore extends SequelizeStore {
   private readonly prefetched = new Map<string, PrefetchedUser>();
@@ -51,13 +52,13 @@ export class SessionStore extends SequelizeStore {
   }
 
   override get(sid: string, fn: (err: unknown, session?: session.SessionData | null) => void): void {
-    this.sequelize
-      .query<SessionRow>(
-        `SELECT s.data, u.id AS userId, u.email, u.name, u.role, u.company_id AS companyId, u.active
-           FROM sessions s LEFT JOIN users u ON u.id = s.user_id
-          WHERE s.sid = ? AND (s.expires IS NULL OR s.expires > ?)`,
-        { replacements: [sid, new Date()], type: QueryTypes.SELECT, raw: true },
-      )
+    selectRows<SessionRow>(
+      this.sequelize,
+      `SELECT s.data, u.id AS userId, u.email, u.name, u.role, u.company_id AS companyId, u.active
+         FROM sessions s LEFT JOIN users u ON u.id = s.user_id
+        WHERE s.sid = ? AND (s.expires IS NULL OR s.expires > ?)`,
+      [sid, sqlDateTime(new Date())],
+    )
       .then((rows) => {
         const row = rows[0];
         this.prefetched.delete(sid);

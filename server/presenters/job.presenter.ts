@@ -9,9 +9,13 @@ const person = (u: User | null | undefined) => (u ? { id: u.id, name: u.name } :
 /** MariaDB hands JSON back parsed; older servers send text. */
 const json = <T>(v: unknown): T => (typeof v === "string" ? (JSON.parse(v) as T) : (v as T));
 
-/** The price keys exist only for roles that see prices: for crew the key is left out, not nulled. */
+/**
+ * The price keys exist only for roles that see prices: for crew the key is left out, not nulled. Added to the
+ * presenter's own new object (last, as a spread would put it) rather than copying it: a board page makes 50.
+ */
 function withPrices<T extends object>(dto: T, quoteTotalCents: number | null, role: Role): T & { quoteTotalCents?: number | null } {
-  return canSeePricing(role) ? { ...dto, quoteTotalCents } : dto;
+  if (canSeePricing(role)) (dto as T & { quoteTotalCents?: number | null }).quoteTotalCents = quoteTotalCents;
+  return dto;
 }
 
 /** A job with its customer, estimator and crew loaded (JobsService.getDetail). */
