@@ -10,7 +10,7 @@
  */
 import { TOL } from "../constants";
 import type { PlaneGeometry } from "../roof/geometry";
-import { eachCrossSection } from "../roof/polygon";
+import { crossingsInto } from "../roof/polygon";
 import { ceilTol } from "../format";
 
 export interface BattenRow {
@@ -35,6 +35,22 @@ export interface BattenTotals {
   fasteners: number;
 }
 
+const CROSSINGS: number[] = [];
+
+/** One line at `at` (clamped just inside lo … hi): its pieces added to `t` (and to `rows` when given). */
+function layLine(g: PlaneGeometry, axis: 0 | 1, at: number, lo: number, hi: number, k: number, fastenerSpacingIn: number, t: BattenTotals, rows?: BattenRow[]): void {
+  const xs = crossingsInto(g.local, axis, Math.min(Math.max(at, lo + nudge), hi - nudge), CROSSINGS);
+  for (let i = 0; i + 1 < xs.length; i += 2) {
+    const len = (xs[i + 1] - xs[i]) * k;
+    if (!(len > TOL)) continue;
+    const fasteners = ceilTol((len * 12) / fastenerSpacingIn) + 1;
+    t.rows++;
+    t.lf += len;
+    t.fasteners += fasteners;
+    rows?.push({ vFt: at, lengthFt: len, fasteners });
+  }
+}
+
 /**
  * The lines of one layer: along v (axis 1, battens across the slope) or along s (axis 0, counter-battens up
  * the slope), placed from lo to hi at `step` (plan ft), the first at lo and the last at hi (none doubled near
@@ -43,27 +59,13 @@ export interface BattenTotals {
  */
 function layLines(g: PlaneGeometry, axis: 0 | 1, lo: number, hi: number, step: number, k: number, fastenerSpacingIn: number, rows?: BattenRow[]): BattenTotals {
   const t: BattenTotals = { rows: 0, lf: 0, fasteners: 0 };
-  let at = 0;
-  const each = (planLen: number) => {
-    const len = planLen * k;
-    if (!(len > TOL)) return;
-    const fasteners = ceilTol((len * 12) / fastenerSpacingIn) + 1;
-    t.rows++;
-    t.lf += len;
-    t.fasteners += fasteners;
-    rows?.push({ vFt: at, lengthFt: len, fasteners });
-  };
-  const line = (x: number) => {
-    at = x;
-    eachCrossSection(g.local, axis, Math.min(Math.max(x, lo + nudge), hi - nudge), each);
-  };
   if (!(step > 0) || hi - lo <= TOL) {
-    line(lo);
-    if (hi - lo > 0) line(hi);
+    layLine(g, axis, lo, lo, hi, k, fastenerSpacingIn, t, rows);
+    if (hi - lo > 0) layLine(g, axis, hi, lo, hi, k, fastenerSpacingIn, t, rows);
     return t;
   }
-  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) line(x);
-  line(hi);
+  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) layLine(g, axis, x, lo, hi, k, fastenerSpacingIn, t, rows);
+  layLine(g, axis, hi, lo, hi, k, fastenerSpacingIn, t, rows);
   return t;
 }
 

@@ -194,6 +194,26 @@ export function stripStarts(sMin: number, sMax: number, w: number, start: PanelS
   return out;
 }
 
+/** The panel of strip a…b over piece c, written into `rec`; false when the piece is TOL wide or less. */
+function fillPiece(rec: PanelPiece, c: StripComponent, a: number, b: number, k: number, hem: number, right: boolean): boolean {
+  if (c.sMax - c.sMin <= TOL) return false;
+  const slopeLengthFt = k * (c.vMax - c.vMin);
+  const seam = right ? b : a;
+  rec.stripS0 = a;
+  rec.stripS1 = b;
+  rec.sMin = c.sMin;
+  rec.sMax = c.sMax;
+  rec.vMin = c.vMin;
+  rec.vMax = c.vMax;
+  rec.slopeLengthFt = slopeLengthFt;
+  rec.lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
+  rec.bottomEdge = c.bottomEdge;
+  rec.topEdge = c.topEdge;
+  rec.sProbe = c.sProbe;
+  rec.clipLineS = Math.min(Math.max(seam, c.sMin), c.sMax);
+  return true;
+}
+
 export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout {
   const wIn = opts.coverageWidthIn;
   const w = wIn / 12;
@@ -210,34 +230,19 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   // One reusable record: push copies it into the packed arrays.
   const rec: PanelPiece = { stripS0: 0, stripS1: 0, sMin: 0, sMax: 0, vMin: 0, vMax: 0, slopeLengthFt: 0, lengthIn: 0, bottomEdge: 0, topEdge: 0, sProbe: 0, clipLineS: 0 };
   const lengthsIn: number[] = [];
-  const add = (c: StripComponent, a: number, b: number) => {
-    if (c.sMax - c.sMin <= TOL) return;
-    const slopeLengthFt = k * (c.vMax - c.vMin);
-    const seam = start === "right" ? b : a;
-    const lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
-    rec.stripS0 = a;
-    rec.stripS1 = b;
-    rec.sMin = c.sMin;
-    rec.sMax = c.sMax;
-    rec.vMin = c.vMin;
-    rec.vMax = c.vMax;
-    rec.slopeLengthFt = slopeLengthFt;
-    rec.lengthIn = lengthIn;
-    rec.bottomEdge = c.bottomEdge;
-    rec.topEdge = c.topEdge;
-    rec.sProbe = c.sProbe;
-    rec.clipLineS = Math.min(Math.max(seam, c.sMin), c.sMax);
-    pieces.push(rec);
-    lengthsIn.push(lengthIn);
-    totalIn += lengthIn;
-    if (lengthIn > longestIn) longestIn = lengthIn;
-  };
+  const right = start === "right";
   for (const a of starts) {
     const b = a + w;
-    if (convex) {
-      const c = convexStripComponent(g.local, a, b, scratch);
-      if (c) add(c, a, b);
-    } else for (const c of stripComponents(g.local, a, b)) add(c, a, b);
+    const pieceList = convex ? null : stripComponents(g.local, a, b);
+    const m = pieceList ? pieceList.length : 1;
+    for (let q = 0; q < m; q++) {
+      const c = pieceList ? pieceList[q] : convexStripComponent(g.local, a, b, scratch);
+      if (!c || !fillPiece(rec, c, a, b, k, hem, right)) continue;
+      pieces.push(rec);
+      lengthsIn.push(rec.lengthIn);
+      totalIn += rec.lengthIn;
+      if (rec.lengthIn > longestIn) longestIn = rec.lengthIn;
+    }
   }
   const n = pieces.count;
   // Cut list: equal lengths grouped, longest first (a sorted copy, counted in one pass).

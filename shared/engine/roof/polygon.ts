@@ -161,23 +161,21 @@ export function intervalsAtS(poly: readonly Pt[], c: number): [number, number][]
   return out;
 }
 
-const CROSS: number[] = [];
-
 /**
- * Lengths of the cross-section of a polygon (local (s, v)) along v = c (axis 1) or s = c (axis 0):
- * calls `each(length)` for each inside interval, without allocating. Same crossing rule as intervalsAtV/S.
+ * Crossings of a polygon (local (s, v)) with the line v = c (axis 1) or s = c (axis 0), sorted along the
+ * line, written into `out` (emptied first): inside intervals are [out[0], out[1]], [out[2], out[3]] …
+ * Same crossing rule as intervalsAtV/S. Returns `out`; a caller keeps one array for many lines.
  */
-export function eachCrossSection(poly: readonly Pt[], axis: 0 | 1, c: number, each: (length: number) => void): void {
+export function crossingsInto(poly: readonly Pt[], axis: 0 | 1, c: number, out: number[]): number[] {
   const o = axis === 1 ? 0 : 1; // the coordinate measured along the line
   const n = poly.length;
-  CROSS.length = 0;
+  out.length = 0;
   for (let i = 0; i < n; i++) {
     const a = poly[i];
     const b = poly[(i + 1) % n];
-    if (a[axis] > c !== b[axis] > c) CROSS.push(a[o] + ((c - a[axis]) * (b[o] - a[o])) / (b[axis] - a[axis]));
+    if (a[axis] > c !== b[axis] > c) out.push(a[o] + ((c - a[axis]) * (b[o] - a[o])) / (b[axis] - a[axis]));
   }
-  sortSmall(CROSS);
-  for (let i = 0; i + 1 < CROSS.length; i += 2) each(CROSS[i + 1] - CROSS[i]);
+  return sortSmall(out);
 }
 
 /** One connected piece of a polygon clipped to a strip a ≤ s ≤ b. */

@@ -202,6 +202,9 @@ function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Flo
   return lo <= hi;
 }
 
+/** Two ends within 0.01 ft of each other meet. */
+const near = (p: Pt, q: Pt) => (p[0] - q[0]) * (p[0] - q[0]) + (p[1] - q[1]) * (p[1] - q[1]) <= 0.01 * 0.01;
+
 /** The roof edges of a plane and its corner pairs (two roof edges meeting at a corner, not in line). */
 export function planeRoofEdges(pieces: EdgePiece[]): RoofEdges {
   const edges: RoofEdge[] = [];
@@ -213,8 +216,6 @@ export function planeRoofEdges(pieces: EdgePiece[]): RoofEdges {
     edges.push({ a: pc.from, b: pc.to, dir: [dx / l, dy / l] });
   }
   const corners: [number, number][] = [];
-  const tol = 0.01;
-  const near = (p: Pt, q: Pt) => (p[0] - q[0]) * (p[0] - q[0]) + (p[1] - q[1]) * (p[1] - q[1]) <= tol * tol;
   for (let i = 0; i < edges.length; i++)
     for (let j = i + 1; j < edges.length; j++) {
       const e = edges[i];
