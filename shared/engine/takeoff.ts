@@ -33,7 +33,7 @@ import { rollsFor, type RollSpec } from "./layers/rolls";
 import { LUMBER, type LumberNominal } from "./lumber";
 import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type MaterialLine } from "./materials";
 import type { EdgeType } from "./roof/edge-types";
-import { analyseEdges, buildRuns, pieceAt, type EdgePiece, type EdgeTotals } from "./roof/edges";
+import { analyseEdges, buildRuns, pieceAt, TOTAL_KEY, type EdgePiece, type EdgeTotals } from "./roof/edges";
 import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
 import { layoutPanels, PanelPieces } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
@@ -187,7 +187,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     );
     runs = buildRuns(byPlane);
     edgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
-    for (const ps of byPlane) for (const pc of ps) if (pc.counted) edgeTotals[`${pc.type}Lf` as keyof EdgeTotals] += pc.trueLengthFt;
+    for (const ps of byPlane) for (const pc of ps) if (pc.counted) edgeTotals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
   }
   const scopedIds = new Set(scoped.map((i) => input.planes[i].id));
   advisories.push(...edgesAll.advisories.filter((a) => a.planeIds.some((id) => scopedIds.has(id))));

@@ -59,6 +59,18 @@ export interface EdgeTotals {
   headwallLf: number;
 }
 
+/** The EdgeTotals field of each edge type. */
+export const TOTAL_KEY: Record<EdgeType, keyof EdgeTotals> = {
+  eave: "eaveLf",
+  rake: "rakeLf",
+  ridge: "ridgeLf",
+  hip: "hipLf",
+  valley: "valleyLf",
+  transition: "transitionLf",
+  sidewall: "sidewallLf",
+  headwall: "headwallLf",
+};
+
 /** A run: counted pieces of one type joined end to end along one straight line (one ridge, one eave …). */
 export interface EdgeRun {
   type: EdgeType;
@@ -115,7 +127,11 @@ function findOverlaps(planes: PlaneGeometry[]): Map<number, Overlap[]> {
       }),
     ),
   );
-  list.sort((u, w) => u.x0 - w.x0);
+  // By x0 (a comparator over a typed array of keys is cheaper than over the objects).
+  const x0s = new Float64Array(list.length);
+  for (let i = 0; i < list.length; i++) x0s[i] = list[i].x0;
+  const byX = Array.from(list.keys()).sort((i, j) => x0s[i] - x0s[j]);
+  const sorted = byX.map((i) => list[i]);
   const out = new Map<number, Overlap[]>();
   const add = (p: number, e: number, o: Overlap) => {
     const key = edgeKey(p, e);
@@ -124,7 +140,7 @@ function findOverlaps(planes: PlaneGeometry[]): Map<number, Overlap[]> {
     else out.set(key, [o]);
   };
   const active: E[] = [];
-  for (const cur of list) {
+  for (const cur of sorted) {
     // Drop edges that end before this one starts.
     let w = 0;
     for (let r = 0; r < active.length; r++) if (active[r].x1 >= cur.x0) active[w++] = active[r];
@@ -323,7 +339,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
   }
 
   const totals: EdgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
-  for (const pieces of byPlane) for (const pc of pieces) if (pc.counted) totals[`${pc.type}Lf` as keyof EdgeTotals] += pc.trueLengthFt;
+  for (const pieces of byPlane) for (const pc of pieces) if (pc.counted) totals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
 
   return { byPlane, totals, runs: buildRuns(byPlane), advisories };
 }
@@ -406,15 +422,17 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
         }
     }
   }
-  const groups = new Map<number, EdgePiece[]>();
+  // Groups by root, in the order their first piece comes.
+  const groupOf: EdgePiece[][] = new Array(n);
+  const order: EdgePiece[][] = [];
   for (let i = 0; i < n; i++) {
     const r = find(i);
-    const g = groups.get(r);
+    const g = groupOf[r];
     if (g) g.push(pieces[i]);
-    else groups.set(r, [pieces[i]]);
+    else order.push((groupOf[r] = [pieces[i]]));
   }
   const runs: EdgeRun[] = [];
-  for (const g of groups.values()) {
+  for (const g of order) {
     const ids: string[] = [];
     let len = 0;
     let plan = 0;
