@@ -33,18 +33,19 @@ import { rollsFor, type RollSpec } from "./layers/rolls";
 import { LUMBER, type LumberNominal } from "./lumber";
 import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type MaterialLine } from "./materials";
 import type { EdgeType } from "./roof/edge-types";
-import { analyseEdges, buildRuns, pieceAt, TOTAL_KEY, type EdgePiece, type EdgeTotals } from "./roof/edges";
+import { analyseEdges, buildRuns, pieceAt, TOTAL_KEY, type EdgePiece, type EdgeRun, type EdgeTotals } from "./roof/edges";
 import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
 import { layoutPanels, PanelPieces } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
 import { computeThermal, foilFacesGap } from "./thermal/index";
-import { countTrimRuns, TRIM_KEY_BY_EDGE } from "./trim";
+import { countTrimRuns, TRIM_KEY_BY_EDGE, type TrimRunCount } from "./trim";
 import type { FastenersResult, PlaneResult, StackResult, TakeoffOutcome, TakeoffResult, ZoneFasteners } from "./types";
 import { aboveDeckChannel, type ChannelResult } from "./ventilation/channel";
 import { climateZoneNumber, computeVentilation } from "./ventilation/index";
 import {
   edgeDistance,
   HIP_ZONE3_MAX_PITCH,
+  type EdgeDistance,
   leastDimensionOfOutlines,
   LOW_SLOPE_MAX_PITCH,
   planeFasteners,
@@ -77,6 +78,13 @@ export function computeTakeoff(input: unknown): TakeoffOutcome {
 export interface TakeoffOptions {
   /** Compute only these planes (edges are still typed against every plane of the roof). */
   planeIds?: readonly string[];
+}
+
+/** The distinct values of a list, in first-seen order. */
+function unique<T>(xs: readonly T[]): T[] {
+  const out: T[] = [];
+  for (const x of xs) if (!out.includes(x)) out.push(x);
+  return out;
 }
 
 /** Materials are listed in the order of MATERIAL_KEYS. */
@@ -150,399 +158,278 @@ function singlePieceTypes(g: PlaneGeometry, pieces: EdgePiece[]): (EdgeType | nu
   return out;
 }
 
-export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions = {}): TakeoffOutcome {
+/** What the per-plane passes add up across the job (rounded once, in the materials). */
+interface JobSums {
+  longestByPlane: Map<number, number>;
+  zones: Record<WindZone, ZoneFasteners>;
+  clips: number;
+  clipScrews: number;
+  panelScrewsExact: number;
+  spacerFasteners: number;
+  underl: Map<MaterialKey, { area: number; layered: number; layers: Set<number> }>;
+  iceMembraneLf: number;
+  icePlanes: { id: string; widthIn: number; courses: number; eaveLf: number }[];
+  planesWithoutIce: string[];
+  meshArea: number;
+  dimpledArea: number;
+  foilArea: number;
+  deckArea: number;
+  battenLf: Map<LumberNominal, { lf: number; rows: number }>;
+  counterLf: Map<LumberNominal, { lf: number; runs: number }>;
+  panelLf: Map<MaterialKey, { lf: number; count: number }>;
+  closureEave: number;
+  closureRidge: number;
+  closureVented: number;
+  clipLimited: { planeId: string; zones: WindZone[]; battenSpacingIn: number }[];
+  penetrations: { planeId: string; kind: string; diameterIn?: number; widthIn?: number; id?: string; count: number }[];
+  lowSlopeWithoutHeight: string[];
+}
+
+const newJobSums = (): JobSums => ({
+  longestByPlane: new Map(),
+  zones: { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() },
+  clips: 0,
+  clipScrews: 0,
+  panelScrewsExact: 0,
+  spacerFasteners: 0,
+  underl: new Map(),
+  iceMembraneLf: 0,
+  icePlanes: [],
+  planesWithoutIce: [],
+  meshArea: 0,
+  dimpledArea: 0,
+  foilArea: 0,
+  deckArea: 0,
+  battenLf: new Map(),
+  counterLf: new Map(),
+  panelLf: new Map(),
+  closureEave: 0,
+  closureRidge: 0,
+  closureVented: 0,
+  clipLimited: [],
+  penetrations: [],
+  lowSlopeWithoutHeight: [],
+});
+
+/** The roof-wide facts each plane's pass reads. */
+interface RoofContext {
+  input: TakeoffInput;
+  geoms: PlaneGeometry[];
+  planeStacks: StackInput[];
+  /** Edge pieces per plane, typed against the whole roof. */
+  byPlane: EdgePiece[][];
+  ed: EdgeDistance;
+  h: number | null;
+  hipRoof: boolean;
+  panelScratch: PanelPieces;
+  channelOf: (s: StackInput) => ChannelResult;
+}
+
+/** One plane's takeoff; its quantities are also added to the job's sums. */
+function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult {
+  const { input, geoms, planeStacks, ed, h, hipRoof } = ctx;
   const { site, rules } = input;
-  // ---- geometry --------------------------------------------------------------------------------------
-  const geoms: PlaneGeometry[] = [];
-  for (let i = 0; i < input.planes.length; i++) {
-    const g = planeGeometryOfParsed(input.planes[i], i);
-    if (isGeometryError(g)) return g;
-    geoms.push(g);
-  }
-  const stacksById = new Map(input.stacks.map((s) => [s.id, s]));
-  const defaultStack = stacksById.get(input.defaultStackId);
-  if (!defaultStack) return { ok: false, reason: `Unknown assembly "${input.defaultStackId}"`, path: ["defaultStackId"] };
-  const planeStacks: StackInput[] = [];
-  for (let i = 0; i < input.planes.length; i++) {
-    const sid = input.planes[i].stackId ?? input.defaultStackId;
-    const s = stacksById.get(sid);
-    if (!s) return { ok: false, reason: `Unknown assembly "${sid}"`, path: ["planes", i, "stackId"] };
-    planeStacks.push(s);
-  }
-  const scope = opts.planeIds ? new Set(opts.planeIds) : null;
-  const inScope = (i: number) => !scope || scope.has(input.planes[i].id);
-  const scoped = geoms.map((_, i) => i).filter(inScope);
-  if (!scoped.length) return { ok: false, reason: "None of the chosen planes is on this roof", path: ["planeIds"] };
-
-  // ---- edges (typed against the whole roof) -------------------------------------------------------------
-  const overrides = input.planes.map((p) => (Object.keys(p.edgeTypes).length ? p.edgeTypes : null));
-  const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e]);
-  const advisories: Advisory[] = [];
-  let edgeTotals: EdgeTotals = edgesAll.totals;
-  let runs = edgesAll.runs;
-  if (scope) {
-    // A shared piece counts on the first in-scope plane; pieces of planes out of scope do not count.
-    const byPlane = edgesAll.byPlane.map((ps, i) =>
-      inScope(i) ? ps.map((pc) => ({ ...pc, counted: !pc.partner || !inScope(pc.partner.planeIdx) || pc.planeIdx < pc.partner.planeIdx })) : [],
-    );
-    runs = buildRuns(byPlane);
-    edgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
-    for (const ps of byPlane) for (const pc of ps) if (pc.counted) edgeTotals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
-  }
-  const scopedIds = new Set(scoped.map((i) => input.planes[i].id));
-  advisories.push(...edgesAll.advisories.filter((a) => a.planeIds.some((id) => scopedIds.has(id))));
-
-  // ---- wind ------------------------------------------------------------------------------------------
-  const lGiven = site.wind.leastHorizontalDimensionFt;
-  const L = lGiven ?? leastDimensionOfOutlines(geoms.map((g) => g.outline));
-  const h = site.wind.meanRoofHeightFt ?? null;
-  const ed = edgeDistance(L, h);
-  const hipRoof = edgesAll.totals.hipLf > 0;
-  const lowSlopeWithoutHeight: string[] = [];
-
-  // ---- per plane --------------------------------------------------------------------------------------
-  const planeResults: PlaneResult[] = [];
-  // Only the longest panel is kept past each plane's loop, so one store of panel pieces serves every plane.
-  const panelScratch = new PanelPieces(64);
-  const longestByPlane = new Map<number, number>();
-  const zones: Record<WindZone, ZoneFasteners> = { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() };
-  let clips = 0;
-  let clipScrews = 0;
-  let panelScrewsExact = 0;
-  let spacerFasteners = 0;
   const screwsPerClip = rules.clips.screwsPerClip;
-
-  // Material measures, summed across the job.
-  const underl = new Map<MaterialKey, { area: number; layered: number; layers: Set<number> }>();
-  let iceMembraneLf = 0;
-  const icePlanes: { id: string; widthIn: number; courses: number; eaveLf: number }[] = [];
-  const planesWithoutIce: string[] = [];
-  let meshArea = 0;
-  let dimpledArea = 0;
-  let foilArea = 0;
-  let deckArea = 0;
-  const battenLf = new Map<LumberNominal, { lf: number; rows: number }>();
-  const counterLf = new Map<LumberNominal, { lf: number; runs: number }>();
-  const panelLf = new Map<MaterialKey, { lf: number; count: number }>();
-  let closureEave = 0;
-  let closureRidge = 0;
-  let closureVented = 0;
-  const clipLimited: { planeId: string; zones: WindZone[]; battenSpacingIn: number }[] = [];
-  const penetrations: { planeId: string; kind: string; diameterIn?: number; widthIn?: number; id?: string; count: number }[] = [];
-
-  const channels = new Map<string, ChannelResult>();
-  const channelOf = (s: StackInput) => {
-    let c = channels.get(s.id);
-    if (!c) {
-      c = channelFor(s, rules);
-      channels.set(s.id, c);
-    }
-    return c;
-  };
-
-  for (const i of scoped) {
-    const g = geoms[i];
-    const plane = input.planes[i];
-    const stack = planeStacks[i];
-    const pieces = edgesAll.byPlane[i];
-    const panelOpts = stack.panel;
-    const panels = layoutPanels(g, {
-      coverageWidthIn: panelOpts.coverageWidthIn,
-      start: panelOpts.start,
-      hemAllowanceIn: panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn,
-      into: panelScratch,
-    });
-    longestByPlane.set(i, panels.longestIn);
-    const pKey: MaterialKey = panelOpts.system === "standing-seam" ? "panel-standing-seam" : "panel-exposed-fastener";
-    const pl = panelLf.get(pKey) ?? { lf: 0, count: 0 };
-    pl.lf += panels.totalLengthFt;
-    pl.count += panels.count;
-    panelLf.set(pKey, pl);
-
-    // Wind zones and fasteners.
-    let model: ZoneModel;
-    if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9 && h !== null) model = { kind: "low-slope", aFt: ed.aFt, h, zone3AsZone2: false };
-    else {
-      if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9) lowSlopeWithoutHeight.push(g.id);
-      model = { kind: "steep", aFt: ed.aFt, zone3AsZone2: hipRoof && g.pitch <= HIP_ZONE3_MAX_PITCH + 1e-9 };
-    }
-    const sp = stack.spacer;
-    const battenSpacingIn = sp.kind === "battens" && panelOpts.system === "standing-seam" ? sp.battens.spacingIn : null;
-    const wz: PlaneWindZones = planeFasteners(g, pieces, panels, {
-      system: panelOpts.system,
-      model,
-      clipSpacingIn: {
-        field: panelOpts.clipSpacingIn.field ?? rules.clips.spacingIn.field,
-        edge: panelOpts.clipSpacingIn.edge ?? rules.clips.spacingIn.edge,
-        corner: panelOpts.clipSpacingIn.corner ?? rules.clips.spacingIn.corner,
-      },
-      screwsPerSquare: {
-        field: panelOpts.screwsPerSquare.field ?? rules.exposedFastener.screwsPerSquare.field,
-        edge: panelOpts.screwsPerSquare.edge ?? rules.exposedFastener.screwsPerSquare.edge,
-        corner: panelOpts.screwsPerSquare.corner ?? rules.exposedFastener.screwsPerSquare.corner,
-      },
-      battenSpacingIn,
-    });
-    if (battenSpacingIn && wz.spacingLimitedByBattens.length) clipLimited.push({ planeId: g.id, zones: wz.spacingLimitedByBattens, battenSpacingIn });
-    clips += wz.clips;
-    clipScrews += wz.clips * screwsPerClip;
-    panelScrewsExact += wz.panelScrews;
-    for (const z of WIND_ZONES) {
-      const src = wz.zones[z];
-      zones[z].clips += src.clips;
-      zones[z].clipScrews += src.clips * screwsPerClip;
-      zones[z].panelScrews += src.panelScrews;
-      zones[z].lineFt += src.lineFt;
-      zones[z].areaSqFt += src.areaSqFt;
-    }
-
-    // Closures at the panel ends.
-    const ch = channelOf(stack);
-    const vented = gapVentilated(stack, ch);
-    const single = singlePieceTypes(g, pieces);
-    const pp = panels.pieces;
-    for (let n = 0; n < pp.count; n++) {
-      const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge(n), pp.sProbe(n));
-      const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge(n), pp.sProbe(n));
-      if (bottom === "eave") {
-        if (vented) closureVented++;
-        else closureEave++;
-      }
-      if (top === "ridge" || top === "hip") {
-        if (vented) closureVented++;
-        else closureRidge++;
-      }
-    }
-
-    // Layers.
-    const uKey = underlaymentKey(stack);
-    const u = underl.get(uKey) ?? { area: 0, layered: 0, layers: new Set<number>() };
-    u.area += g.slopedAreaSqFt;
-    u.layered += g.slopedAreaSqFt * stack.underlayment.layers;
-    u.layers.add(stack.underlayment.layers);
-    underl.set(uKey, u);
-
-    let ice: PlaneResult["layers"]["iceBarrier"] = null;
-    const wantsIce = stack.underlayment.iceBarrier ?? site.iceDamRisk === true;
-    const eaveLf = pieces.filter((pc) => pc.type === "eave").reduce((t, pc) => t + pc.trueLengthFt, 0);
-    if (wantsIce && eaveLf > 0) {
-      const widthIn = iceBarrierWidthIn(plane.eaveOverhangIn, g.pitch, site.codeEdition, rules.iceBarrier.insideWallIn);
-      if (stack.underlayment.kind === "self-adhered") {
-        ice = { widthIn, courses: 0, eaveLf, membraneLf: 0, note: "The self-adhered underlayment covers the whole deck, so no separate ice barrier is added." };
-      } else {
-        const courses = iceBarrierCourses(widthIn, rules.iceBarrier.rollWidthIn, rules.iceBarrier.sideLapIn);
-        iceMembraneLf += courses * eaveLf;
-        icePlanes.push({ id: g.id, widthIn, courses, eaveLf });
-        ice = { widthIn, courses, eaveLf, membraneLf: courses * eaveLf };
-      }
-    } else if (site.iceDamRisk === true && !wantsIce && eaveLf > 0 && stack.underlayment.kind !== "self-adhered") {
-      planesWithoutIce.push(g.id);
-    }
-
-    let battens: PlaneResult["layers"]["battens"] = null;
-    let counterBattens: PlaneResult["layers"]["counterBattens"] = null;
-    let meshSqFt = 0;
-    let dimpledSqFt = 0;
-    if (sp.kind === "battens") {
-      const rows = battenTotals(g, sp.battens.spacingIn, rules.battens.fastenerSpacingIn);
-      const b = battenLf.get(sp.battens.nominal) ?? { lf: 0, rows: 0 };
-      b.lf += rows.lf;
-      b.rows += rows.rows;
-      battenLf.set(sp.battens.nominal, b);
-      spacerFasteners += rows.fasteners;
-      battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
-      if (sp.battens.counterBattens) {
-        const nominal = sp.battens.counterBattenNominal ?? sp.battens.nominal;
-        const spacing = sp.battens.counterBattenSpacingIn ?? rules.battens.counterBattenSpacingIn;
-        const cr = counterBattenTotals(g, spacing, rules.battens.fastenerSpacingIn);
-        const c = counterLf.get(nominal) ?? { lf: 0, runs: 0 };
-        c.lf += cr.lf;
-        c.runs += cr.rows;
-        counterLf.set(nominal, c);
-        spacerFasteners += cr.fasteners;
-        counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
-      }
-    } else if (sp.kind === "mesh") {
-      meshSqFt = g.slopedAreaSqFt;
-      meshArea += meshSqFt;
-    } else if (sp.kind === "dimpled") {
-      dimpledSqFt = g.slopedAreaSqFt;
-      dimpledArea += dimpledSqFt;
-    }
-    const foilSqFt = stack.radiantBarrier.kind === "foil" ? g.slopedAreaSqFt : 0;
-    foilArea += foilSqFt;
-    const deckSqFt = deckAreaToReplace(g.slopedAreaSqFt, stack.deck.action, stack.deck.repairSharePct);
-    deckArea += deckSqFt;
-
-    for (const pen of plane.penetrations) penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
-
-    planeResults.push({
-      id: g.id,
-      name: plane.name,
-      stackId: stack.id,
-      pitch: g.pitch,
-      angleDeg: slopeAngleDeg(g.pitch),
-      slopeFactor: g.slopeFactor,
-      planAreaSqFt: g.planAreaSqFt,
-      slopedAreaSqFt: g.slopedAreaSqFt,
-      squares: g.squares,
-      vertices: g.outline.map((p, k) => ({ x: p[0], y: p[1], z: g.heights[k] })),
-      eaveEdge: g.eaveEdge,
-      edges: pieces.map((pc) => ({
-        index: pc.edgeIndex,
-        part: pc.part,
-        type: pc.type,
-        computedType: pc.computedType,
-        overridden: pc.overridden,
-        shared: pc.shared,
-        sharedWith: pc.partner ? { planeId: pc.partner.planeId, edgeIndex: pc.partner.edgeIndex } : null,
-        from: [pc.from[0], pc.from[1]],
-        to: [pc.to[0], pc.to[1]],
-        planLengthFt: pc.planLengthFt,
-        trueLengthFt: pc.trueLengthFt,
-      })),
-      panels: {
-        system: panelOpts.system,
-        coverageWidthIn: panels.coverageWidthIn,
-        count: panels.count,
-        lengthsIn: panels.lengthsIn,
-        cutList: panels.cutList,
-        offcutSqFt: panels.offcutSqFt,
-        totalLengthFt: panels.totalLengthFt,
-        longestIn: panels.longestIn,
-      },
-      windZones: wz,
-      layers: {
-        underlaymentSqFt: g.slopedAreaSqFt * stack.underlayment.layers,
-        iceBarrier: ice,
-        battens,
-        counterBattens,
-        meshSqFt,
-        dimpledSqFt,
-        foilSqFt,
-        deckSqFt,
-      },
-    });
-  }
-
-  // ---- trim ------------------------------------------------------------------------------------------
-  const trimRuns = countTrimRuns(runs, rules.trim.stockLengthFt, rules.trim.endLapIn, rules.trim.fastenerSpacingIn);
-  const trimFasteners = trimRuns.reduce((t, r) => t + r.fasteners, 0);
-  const trimLaps = trimRuns.reduce((t, r) => t + r.laps, 0);
-
-  // ---- stacks: channel and thermal --------------------------------------------------------------------
-  const stackResults: StackResult[] = [];
-  const thermalAdvisories: Advisory[] = [];
-  for (const s of input.stacks) {
-    const planeIdx = scoped.filter((i) => planeStacks[i].id === s.id);
-    if (!planeIdx.length) continue;
-    const ids = planeIdx.map((i) => geoms[i].id);
-    const ch = channelOf(s);
-    const plan = planeIdx.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
-    const sloped = planeIdx.reduce((t, i) => t + geoms[i].slopedAreaSqFt, 0);
-    // Pitch for the air-space table: the assembly's largest plane.
-    const main = planeIdx.reduce((m, i) => (geoms[i].slopedAreaSqFt > geoms[m].slopedAreaSqFt ? i : m), planeIdx[0]);
-    const rb = s.radiantBarrier;
-    const facesGap = rb.kind === "foil" ? foilFacesGap(rb.position, rb.reflectiveFace, ch.gapIn) : false;
-    const th = computeThermal({
-      gapIn: ch.gapIn,
-      gapVentilated: gapVentilated(s, ch),
-      pitch: geoms[main].pitch,
-      foil: rb.kind === "foil" ? { emittance: rb.emittance, facesGap, position: rb.position } : null,
-      panelUndersideEmittance: s.panel.panelUndersideEmittance,
-      solarReflectance: s.panel.solarReflectance,
-      thermalEmittance: s.panel.thermalEmittance,
-      climateZone: site.climateZone,
-      coolRoofRequired: site.coolRoofRequired,
-      planeIds: ids,
-    });
-    thermalAdvisories.push(...th.advisories);
-    stackResults.push({
-      id: s.id,
-      name: s.name ?? null,
-      planeIds: ids,
-      planAreaSqFt: plan,
-      slopedAreaSqFt: sloped,
-      squares: sloped / 100,
-      channel: ch,
-      thermal: th.result,
-      upliftAssembly: !site.wind.ratedAssemblyRequired ? "not-required" : s.spacer.kind === "none" ? "tested" : "not-tested-needs-review",
-    });
-
-    // Assembly advisories.
-    const pitches = planeIdx.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
-    advisories.push(...slopeAdvisories(pitches, { system: s.panel.system, lapSealant: s.panel.lapSealant, minPitch: s.panel.minPitch }));
-    advisories.push(...underlaymentAdvisories(s.underlayment, pitches, site.wind.basicWindSpeedMph));
-    advisories.push(...foilAdvisory({ foil: rb.kind === "foil", facesGap, gapIn: ch.gapIn, position: rb.position, face: rb.reflectiveFace, planeIds: ids }));
-    advisories.push(...gapTooThinAdvisory({ atticType: site.atticType, kind: s.spacer.kind, gapIn: ch.gapIn, claimed: s.ventilation.aboveDeckClaimed, planeIds: ids }));
-    advisories.push(...ratedAssemblyAdvisory({ required: site.wind.ratedAssemblyRequired, spacerKind: s.spacer.kind, planeIds: ids }));
-    if (s.spacer.kind === "battens") {
-      advisories.push(...treatedLumberAdvisory({ treated: s.spacer.battens.treated, substrate: s.panel.substrate, planeIds: ids }));
-    }
-  }
-  const dominant = stackResults.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt + 1e-9 ? s : m), stackResults[0]);
-  const dominantStack = stacksById.get(dominant.id)!;
-
-  // ---- ventilation (the roof as one vented space) -------------------------------------------------------
-  const scopedPlaneIds = scoped.map((i) => geoms[i].id);
-  const planArea = scoped.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
-  const ridgeRuns = runs.filter((r) => r.type === "ridge");
-  const vent = computeVentilation({
-    site: {
-      atticType: site.atticType,
-      atticFloorAreaSqFt: site.atticFloorAreaSqFt,
-      ventException: site.ventException,
-      codeEdition: String(site.codeEdition),
-      climateZone: site.climateZone,
-      vaporRetarder: site.vaporRetarder,
-    },
-    roofPlanAreaSqFt: planArea,
-    ridgeLf: edgeTotals.ridgeLf,
-    ridgeSegments: ridgeRuns.length,
-    hipLf: edgeTotals.hipLf,
-    headwallLf: edgeTotals.headwallLf,
-    eaveLf: edgeTotals.eaveLf,
-    intakeNfaPerFtSqIn: dominantStack.ventilation.intakeNfaPerFtSqIn ?? rules.vents.intakeNfaPerFtSqIn,
-    exhaustNfaPerFtSqIn: dominantStack.ventilation.exhaustNfaPerFtSqIn ?? rules.vents.ridgeNfaPerFtSqIn,
-    ventHips: dominantStack.ventilation.ventHips,
-    ventHeadwalls: dominantStack.ventilation.ventHeadwalls,
-    aboveDeckClaimed: dominantStack.ventilation.aboveDeckClaimed,
-    channel: dominant.channel,
-    planeIds: scopedPlaneIds,
+  const g = geoms[i];
+  const plane = input.planes[i];
+  const stack = planeStacks[i];
+  const pieces = ctx.byPlane[i];
+  const panelOpts = stack.panel;
+  const panels = layoutPanels(g, {
+    coverageWidthIn: panelOpts.coverageWidthIn,
+    start: panelOpts.start,
+    hemAllowanceIn: panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn,
+    into: ctx.panelScratch,
   });
+  sums.longestByPlane.set(i, panels.longestIn);
+  const pKey: MaterialKey = panelOpts.system === "standing-seam" ? "panel-standing-seam" : "panel-exposed-fastener";
+  const pl = sums.panelLf.get(pKey) ?? { lf: 0, count: 0 };
+  pl.lf += panels.totalLengthFt;
+  pl.count += panels.count;
+  sums.panelLf.set(pKey, pl);
 
-  // ---- roof-wide advisories ---------------------------------------------------------------------------
-  const scopedPlanes = scoped.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
-  advisories.push(
-    ...iceBarrierAdvisories({
-      iceDamRisk: site.iceDamRisk,
-      climateZoneNumber: climateZoneNumber(site.climateZone),
-      planesWithout: planesWithoutIce,
-      allPlaneIds: scopedPlaneIds,
-    }),
-  );
-  const maxLengthByPlane = scoped.map((i) => ({ id: geoms[i].id, longestIn: longestByPlane.get(i)!, max: planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt }));
-  const maxFts = [...new Set(maxLengthByPlane.map((p) => p.max))];
-  for (const mx of maxFts) {
-    advisories.push(
-      ...panelLengthAdvisories(
-        maxLengthByPlane.filter((p) => p.max === mx),
-        mx,
-        Math.min(rules.panels.longPanelInfoFt, mx),
-      ),
-    );
+  // Wind zones and fasteners.
+  let model: ZoneModel;
+  if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9 && h !== null) model = { kind: "low-slope", aFt: ed.aFt, h, zone3AsZone2: false };
+  else {
+    if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9) sums.lowSlopeWithoutHeight.push(g.id);
+    model = { kind: "steep", aFt: ed.aFt, zone3AsZone2: hipRoof && g.pitch <= HIP_ZONE3_MAX_PITCH + 1e-9 };
   }
-  advisories.push(...reroofAdvisory(site.existingLayers, site.tearOff));
-  advisories.push(...cricketAdvisories(penetrations));
-  const transitionPlanes = [...new Set(runs.filter((r) => r.type === "transition").flatMap((r) => r.planeIds))].filter((id) => scopedIds.has(id));
-  advisories.push(...transitionAdvisory(edgeTotals.transitionLf, transitionPlanes));
-  const battenSpacings = [...new Set(clipLimited.map((c) => c.battenSpacingIn))];
-  for (const bs of battenSpacings) advisories.push(...clipSpacingBattenAdvisory(clipLimited.filter((c) => c.battenSpacingIn === bs), bs));
-  advisories.push(...fallProtectionAdvisories(scopedPlanes));
-  advisories.push(...windAdvisories({ planes: scopedPlanes, heightMissing: ed.heightMissing, lowSlopeWithoutHeight, aFt: ed.aFt }));
-  advisories.push(...vent.advisories, ...thermalAdvisories);
+  const sp = stack.spacer;
+  const battenSpacingIn = sp.kind === "battens" && panelOpts.system === "standing-seam" ? sp.battens.spacingIn : null;
+  const wz: PlaneWindZones = planeFasteners(g, pieces, panels, {
+    system: panelOpts.system,
+    model,
+    clipSpacingIn: {
+      field: panelOpts.clipSpacingIn.field ?? rules.clips.spacingIn.field,
+      edge: panelOpts.clipSpacingIn.edge ?? rules.clips.spacingIn.edge,
+      corner: panelOpts.clipSpacingIn.corner ?? rules.clips.spacingIn.corner,
+    },
+    screwsPerSquare: {
+      field: panelOpts.screwsPerSquare.field ?? rules.exposedFastener.screwsPerSquare.field,
+      edge: panelOpts.screwsPerSquare.edge ?? rules.exposedFastener.screwsPerSquare.edge,
+      corner: panelOpts.screwsPerSquare.corner ?? rules.exposedFastener.screwsPerSquare.corner,
+    },
+    battenSpacingIn,
+  });
+  if (battenSpacingIn && wz.spacingLimitedByBattens.length) sums.clipLimited.push({ planeId: g.id, zones: wz.spacingLimitedByBattens, battenSpacingIn });
+  sums.clips += wz.clips;
+  sums.clipScrews += wz.clips * screwsPerClip;
+  sums.panelScrewsExact += wz.panelScrews;
+  for (const z of WIND_ZONES) {
+    const src = wz.zones[z];
+    sums.zones[z].clips += src.clips;
+    sums.zones[z].clipScrews += src.clips * screwsPerClip;
+    sums.zones[z].panelScrews += src.panelScrews;
+    sums.zones[z].lineFt += src.lineFt;
+    sums.zones[z].areaSqFt += src.areaSqFt;
+  }
 
-  // ---- materials (rounded once, here) -----------------------------------------------------------------
+  // Closures at the panel ends.
+  const ch = ctx.channelOf(stack);
+  const vented = gapVentilated(stack, ch);
+  const single = singlePieceTypes(g, pieces);
+  const pp = panels.pieces;
+  for (let n = 0; n < pp.count; n++) {
+    const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge(n), pp.sProbe(n));
+    const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge(n), pp.sProbe(n));
+    if (bottom === "eave") {
+      if (vented) sums.closureVented++;
+      else sums.closureEave++;
+    }
+    if (top === "ridge" || top === "hip") {
+      if (vented) sums.closureVented++;
+      else sums.closureRidge++;
+    }
+  }
+
+  // Layers.
+  const uKey = underlaymentKey(stack);
+  const u = sums.underl.get(uKey) ?? { area: 0, layered: 0, layers: new Set<number>() };
+  u.area += g.slopedAreaSqFt;
+  u.layered += g.slopedAreaSqFt * stack.underlayment.layers;
+  u.layers.add(stack.underlayment.layers);
+  sums.underl.set(uKey, u);
+
+  let ice: PlaneResult["layers"]["iceBarrier"] = null;
+  const wantsIce = stack.underlayment.iceBarrier ?? site.iceDamRisk === true;
+  const eaveLf = pieces.filter((pc) => pc.type === "eave").reduce((t, pc) => t + pc.trueLengthFt, 0);
+  if (wantsIce && eaveLf > 0) {
+    const widthIn = iceBarrierWidthIn(plane.eaveOverhangIn, g.pitch, site.codeEdition, rules.iceBarrier.insideWallIn);
+    if (stack.underlayment.kind === "self-adhered") {
+      ice = { widthIn, courses: 0, eaveLf, membraneLf: 0, note: "The self-adhered underlayment covers the whole deck, so no separate ice barrier is added." };
+    } else {
+      const courses = iceBarrierCourses(widthIn, rules.iceBarrier.rollWidthIn, rules.iceBarrier.sideLapIn);
+      sums.iceMembraneLf += courses * eaveLf;
+      sums.icePlanes.push({ id: g.id, widthIn, courses, eaveLf });
+      ice = { widthIn, courses, eaveLf, membraneLf: courses * eaveLf };
+    }
+  } else if (site.iceDamRisk === true && !wantsIce && eaveLf > 0 && stack.underlayment.kind !== "self-adhered") {
+    sums.planesWithoutIce.push(g.id);
+  }
+
+  let battens: PlaneResult["layers"]["battens"] = null;
+  let counterBattens: PlaneResult["layers"]["counterBattens"] = null;
+  let meshSqFt = 0;
+  let dimpledSqFt = 0;
+  if (sp.kind === "battens") {
+    const rows = battenTotals(g, sp.battens.spacingIn, rules.battens.fastenerSpacingIn);
+    const b = sums.battenLf.get(sp.battens.nominal) ?? { lf: 0, rows: 0 };
+    b.lf += rows.lf;
+    b.rows += rows.rows;
+    sums.battenLf.set(sp.battens.nominal, b);
+    sums.spacerFasteners += rows.fasteners;
+    battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
+    if (sp.battens.counterBattens) {
+      const nominal = sp.battens.counterBattenNominal ?? sp.battens.nominal;
+      const spacing = sp.battens.counterBattenSpacingIn ?? rules.battens.counterBattenSpacingIn;
+      const cr = counterBattenTotals(g, spacing, rules.battens.fastenerSpacingIn);
+      const c = sums.counterLf.get(nominal) ?? { lf: 0, runs: 0 };
+      c.lf += cr.lf;
+      c.runs += cr.rows;
+      sums.counterLf.set(nominal, c);
+      sums.spacerFasteners += cr.fasteners;
+      counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
+    }
+  } else if (sp.kind === "mesh") {
+    meshSqFt = g.slopedAreaSqFt;
+    sums.meshArea += meshSqFt;
+  } else if (sp.kind === "dimpled") {
+    dimpledSqFt = g.slopedAreaSqFt;
+    sums.dimpledArea += dimpledSqFt;
+  }
+  const foilSqFt = stack.radiantBarrier.kind === "foil" ? g.slopedAreaSqFt : 0;
+  sums.foilArea += foilSqFt;
+  const deckSqFt = deckAreaToReplace(g.slopedAreaSqFt, stack.deck.action, stack.deck.repairSharePct);
+  sums.deckArea += deckSqFt;
+
+  for (const pen of plane.penetrations) sums.penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
+
+  return {
+    id: g.id,
+    name: plane.name,
+    stackId: stack.id,
+    pitch: g.pitch,
+    angleDeg: slopeAngleDeg(g.pitch),
+    slopeFactor: g.slopeFactor,
+    planAreaSqFt: g.planAreaSqFt,
+    slopedAreaSqFt: g.slopedAreaSqFt,
+    squares: g.squares,
+    vertices: g.outline.map((p, k) => ({ x: p[0], y: p[1], z: g.heights[k] })),
+    eaveEdge: g.eaveEdge,
+    edges: pieces.map((pc) => ({
+      index: pc.edgeIndex,
+      part: pc.part,
+      type: pc.type,
+      computedType: pc.computedType,
+      overridden: pc.overridden,
+      shared: pc.shared,
+      sharedWith: pc.partner ? { planeId: pc.partner.planeId, edgeIndex: pc.partner.edgeIndex } : null,
+      from: [pc.from[0], pc.from[1]],
+      to: [pc.to[0], pc.to[1]],
+      planLengthFt: pc.planLengthFt,
+      trueLengthFt: pc.trueLengthFt,
+    })),
+    panels: {
+      system: panelOpts.system,
+      coverageWidthIn: panels.coverageWidthIn,
+      count: panels.count,
+      lengthsIn: panels.lengthsIn,
+      cutList: panels.cutList,
+      offcutSqFt: panels.offcutSqFt,
+      totalLengthFt: panels.totalLengthFt,
+      longestIn: panels.longestIn,
+    },
+    windZones: wz,
+    layers: {
+      underlaymentSqFt: g.slopedAreaSqFt * stack.underlayment.layers,
+      iceBarrier: ice,
+      battens,
+      counterBattens,
+      meshSqFt,
+      dimpledSqFt,
+      foilSqFt,
+      deckSqFt,
+    },
+  };
+}
+
+/** The job's quantities in purchase units, each with the arithmetic in words; rounded once, here. */
+function materialLines(m: {
+  rules: TakeoffInput["rules"];
+  sums: JobSums;
+  edgeTotals: EdgeTotals;
+  trimRuns: TrimRunCount[];
+  trimLaps: number;
+  trimFasteners: number;
+  vent: ReturnType<typeof computeVentilation>;
+  ridgeRuns: EdgeRun[];
+  dominantStack: StackInput;
+}): { lines: MaterialLine[]; deckSheets: number; panelScrews: number } {
+  const { rules, sums, edgeTotals, trimRuns, trimLaps, trimFasteners, vent, ridgeRuns, dominantStack } = m;
+  const { clips, clipScrews, panelScrewsExact, spacerFasteners, underl, iceMembraneLf, icePlanes, meshArea, dimpledArea, foilArea, deckArea } = sums;
+  const { battenLf, counterLf, panelLf, closureEave, closureRidge, closureVented, penetrations } = sums;
+  const screwsPerClip = rules.clips.screwsPerClip;
   const w = rules.waste;
   const lines: MaterialLine[] = [];
   for (const [key, v] of panelLf) {
@@ -556,7 +443,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   }
   for (const [key, v] of underl) {
     const spec = underlaymentRoll(rules, key);
-    const uniform = v.layers.size === 1 ? [...v.layers][0] : null;
+    const uniform = v.layers.size === 1 ? v.layers.values().next().value! : null;
     const r = uniform ? rollsFor(v.area, w.underlaymentPct, spec, { layers: uniform }) : rollsFor(v.layered, w.underlaymentPct, spec, { what: "sloped, layers counted" });
     lines.push(materialLine(key, r.rolls, r.basis));
   }
@@ -575,7 +462,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
         gr.eaveLf += p.eaveLf;
       } else groups.set(key, { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn });
     }
-    const detail = [...groups.values()]
+    const detail = Array.from(groups.values())
       .map((gr) => `${gr.ids.length === 1 ? gr.ids[0] : `${gr.ids.length} planes`}: ${fmt(gr.eaveLf)} ft eave × ${gr.courses} ${plural(gr.courses, "course")} (${fmt(gr.widthIn)} in up the slope)`)
       .join("; ");
     lines.push(
@@ -639,7 +526,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       const key = `${fmt(r.lengthFt)} ft → ${r.pieces}`;
       same.set(key, (same.get(key) ?? 0) + 1);
     }
-    const list = [...same].map(([key, n]) => (n > 1 ? `${n} × ${key}` : key)).join(", ");
+    const list = Array.from(same, ([key, n]) => (n > 1 ? `${n} × ${key}` : key)).join(", ");
     lines.push(
       materialLine(
         TRIM_KEY_BY_EDGE[t],
@@ -760,6 +647,203 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     }
   }
   lines.sort((a, b) => MATERIAL_RANK.get(a.key)! - MATERIAL_RANK.get(b.key)!);
+  return { lines, deckSheets, panelScrews };
+}
+
+export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions = {}): TakeoffOutcome {
+  const { site, rules } = input;
+  // ---- geometry --------------------------------------------------------------------------------------
+  const geoms: PlaneGeometry[] = [];
+  for (let i = 0; i < input.planes.length; i++) {
+    const g = planeGeometryOfParsed(input.planes[i], i);
+    if (isGeometryError(g)) return g;
+    geoms.push(g);
+  }
+  const stacksById = new Map(input.stacks.map((s) => [s.id, s]));
+  const defaultStack = stacksById.get(input.defaultStackId);
+  if (!defaultStack) return { ok: false, reason: `Unknown assembly "${input.defaultStackId}"`, path: ["defaultStackId"] };
+  const planeStacks: StackInput[] = [];
+  for (let i = 0; i < input.planes.length; i++) {
+    const sid = input.planes[i].stackId ?? input.defaultStackId;
+    const s = stacksById.get(sid);
+    if (!s) return { ok: false, reason: `Unknown assembly "${sid}"`, path: ["planes", i, "stackId"] };
+    planeStacks.push(s);
+  }
+  const scope = opts.planeIds ? new Set(opts.planeIds) : null;
+  const inScope = (i: number) => !scope || scope.has(input.planes[i].id);
+  const scoped = geoms.map((_, i) => i).filter(inScope);
+  if (!scoped.length) return { ok: false, reason: "None of the chosen planes is on this roof", path: ["planeIds"] };
+
+  // ---- edges (typed against the whole roof) -------------------------------------------------------------
+  const overrides = input.planes.map((p) => (Object.keys(p.edgeTypes).length ? p.edgeTypes : null));
+  const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e]);
+  const advisories: Advisory[] = [];
+  let edgeTotals: EdgeTotals = edgesAll.totals;
+  let runs = edgesAll.runs;
+  if (scope) {
+    // A shared piece counts on the first in-scope plane; pieces of planes out of scope do not count.
+    const byPlane = edgesAll.byPlane.map((ps, i) =>
+      inScope(i) ? ps.map((pc) => ({ ...pc, counted: !pc.partner || !inScope(pc.partner.planeIdx) || pc.planeIdx < pc.partner.planeIdx })) : [],
+    );
+    runs = buildRuns(byPlane);
+    edgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
+    for (const ps of byPlane) for (const pc of ps) if (pc.counted) edgeTotals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
+  }
+  const scopedIds = new Set(scoped.map((i) => input.planes[i].id));
+  advisories.push(...edgesAll.advisories.filter((a) => a.planeIds.some((id) => scopedIds.has(id))));
+
+  // ---- wind ------------------------------------------------------------------------------------------
+  const lGiven = site.wind.leastHorizontalDimensionFt;
+  const L = lGiven ?? leastDimensionOfOutlines(geoms.map((g) => g.outline));
+  const h = site.wind.meanRoofHeightFt ?? null;
+  const ed = edgeDistance(L, h);
+  const hipRoof = edgesAll.totals.hipLf > 0;
+
+  // ---- per plane --------------------------------------------------------------------------------------
+  const channels = new Map<string, ChannelResult>();
+  const ctx: RoofContext = {
+    input,
+    geoms,
+    planeStacks,
+    byPlane: edgesAll.byPlane,
+    ed,
+    h,
+    hipRoof,
+    // Only the longest panel is kept past each plane's pass, so one store of panel pieces serves every plane.
+    panelScratch: new PanelPieces(64),
+    channelOf: (s: StackInput) => {
+      let c = channels.get(s.id);
+      if (!c) {
+        c = channelFor(s, rules);
+        channels.set(s.id, c);
+      }
+      return c;
+    },
+  };
+  const sums = newJobSums();
+  const planeResults = scoped.map((i) => takeoffPlane(ctx, i, sums));
+  const { channelOf } = ctx;
+  const { longestByPlane, zones, clips, clipScrews, spacerFasteners, planesWithoutIce, clipLimited, penetrations } = sums;
+
+  // ---- trim ------------------------------------------------------------------------------------------
+  const trimRuns = countTrimRuns(runs, rules.trim.stockLengthFt, rules.trim.endLapIn, rules.trim.fastenerSpacingIn);
+  const trimFasteners = trimRuns.reduce((t, r) => t + r.fasteners, 0);
+  const trimLaps = trimRuns.reduce((t, r) => t + r.laps, 0);
+
+  // ---- stacks: channel and thermal --------------------------------------------------------------------
+  const stackResults: StackResult[] = [];
+  const thermalAdvisories: Advisory[] = [];
+  for (const s of input.stacks) {
+    const planeIdx = scoped.filter((i) => planeStacks[i].id === s.id);
+    if (!planeIdx.length) continue;
+    const ids = planeIdx.map((i) => geoms[i].id);
+    const ch = channelOf(s);
+    const plan = planeIdx.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
+    const sloped = planeIdx.reduce((t, i) => t + geoms[i].slopedAreaSqFt, 0);
+    // Pitch for the air-space table: the assembly's largest plane.
+    const main = planeIdx.reduce((m, i) => (geoms[i].slopedAreaSqFt > geoms[m].slopedAreaSqFt ? i : m), planeIdx[0]);
+    const rb = s.radiantBarrier;
+    const facesGap = rb.kind === "foil" ? foilFacesGap(rb.position, rb.reflectiveFace, ch.gapIn) : false;
+    const th = computeThermal({
+      gapIn: ch.gapIn,
+      gapVentilated: gapVentilated(s, ch),
+      pitch: geoms[main].pitch,
+      foil: rb.kind === "foil" ? { emittance: rb.emittance, facesGap, position: rb.position } : null,
+      panelUndersideEmittance: s.panel.panelUndersideEmittance,
+      solarReflectance: s.panel.solarReflectance,
+      thermalEmittance: s.panel.thermalEmittance,
+      climateZone: site.climateZone,
+      coolRoofRequired: site.coolRoofRequired,
+      planeIds: ids,
+    });
+    thermalAdvisories.push(...th.advisories);
+    stackResults.push({
+      id: s.id,
+      name: s.name ?? null,
+      planeIds: ids,
+      planAreaSqFt: plan,
+      slopedAreaSqFt: sloped,
+      squares: sloped / 100,
+      channel: ch,
+      thermal: th.result,
+      upliftAssembly: !site.wind.ratedAssemblyRequired ? "not-required" : s.spacer.kind === "none" ? "tested" : "not-tested-needs-review",
+    });
+
+    // Assembly advisories.
+    const pitches = planeIdx.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
+    advisories.push(...slopeAdvisories(pitches, { system: s.panel.system, lapSealant: s.panel.lapSealant, minPitch: s.panel.minPitch }));
+    advisories.push(...underlaymentAdvisories(s.underlayment, pitches, site.wind.basicWindSpeedMph));
+    advisories.push(...foilAdvisory({ foil: rb.kind === "foil", facesGap, gapIn: ch.gapIn, position: rb.position, face: rb.reflectiveFace, planeIds: ids }));
+    advisories.push(...gapTooThinAdvisory({ atticType: site.atticType, kind: s.spacer.kind, gapIn: ch.gapIn, claimed: s.ventilation.aboveDeckClaimed, planeIds: ids }));
+    advisories.push(...ratedAssemblyAdvisory({ required: site.wind.ratedAssemblyRequired, spacerKind: s.spacer.kind, planeIds: ids }));
+    if (s.spacer.kind === "battens") {
+      advisories.push(...treatedLumberAdvisory({ treated: s.spacer.battens.treated, substrate: s.panel.substrate, planeIds: ids }));
+    }
+  }
+  const dominant = stackResults.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt + 1e-9 ? s : m), stackResults[0]);
+  const dominantStack = stacksById.get(dominant.id)!;
+
+  // ---- ventilation (the roof as one vented space) -------------------------------------------------------
+  const scopedPlaneIds = scoped.map((i) => geoms[i].id);
+  const planArea = scoped.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
+  const ridgeRuns = runs.filter((r) => r.type === "ridge");
+  const vent = computeVentilation({
+    site: {
+      atticType: site.atticType,
+      atticFloorAreaSqFt: site.atticFloorAreaSqFt,
+      ventException: site.ventException,
+      codeEdition: String(site.codeEdition),
+      climateZone: site.climateZone,
+      vaporRetarder: site.vaporRetarder,
+    },
+    roofPlanAreaSqFt: planArea,
+    ridgeLf: edgeTotals.ridgeLf,
+    ridgeSegments: ridgeRuns.length,
+    hipLf: edgeTotals.hipLf,
+    headwallLf: edgeTotals.headwallLf,
+    eaveLf: edgeTotals.eaveLf,
+    intakeNfaPerFtSqIn: dominantStack.ventilation.intakeNfaPerFtSqIn ?? rules.vents.intakeNfaPerFtSqIn,
+    exhaustNfaPerFtSqIn: dominantStack.ventilation.exhaustNfaPerFtSqIn ?? rules.vents.ridgeNfaPerFtSqIn,
+    ventHips: dominantStack.ventilation.ventHips,
+    ventHeadwalls: dominantStack.ventilation.ventHeadwalls,
+    aboveDeckClaimed: dominantStack.ventilation.aboveDeckClaimed,
+    channel: dominant.channel,
+    planeIds: scopedPlaneIds,
+  });
+
+  // ---- roof-wide advisories ---------------------------------------------------------------------------
+  const scopedPlanes = scoped.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
+  advisories.push(
+    ...iceBarrierAdvisories({
+      iceDamRisk: site.iceDamRisk,
+      climateZoneNumber: climateZoneNumber(site.climateZone),
+      planesWithout: planesWithoutIce,
+      allPlaneIds: scopedPlaneIds,
+    }),
+  );
+  const maxLengthByPlane = scoped.map((i) => ({ id: geoms[i].id, longestIn: longestByPlane.get(i)!, max: planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt }));
+  const maxFts = unique(maxLengthByPlane.map((p) => p.max));
+  for (const mx of maxFts) {
+    advisories.push(
+      ...panelLengthAdvisories(
+        maxLengthByPlane.filter((p) => p.max === mx),
+        mx,
+        Math.min(rules.panels.longPanelInfoFt, mx),
+      ),
+    );
+  }
+  advisories.push(...reroofAdvisory(site.existingLayers, site.tearOff));
+  advisories.push(...cricketAdvisories(penetrations));
+  const transitionPlanes = unique(runs.filter((r) => r.type === "transition").flatMap((r) => r.planeIds)).filter((id) => scopedIds.has(id));
+  advisories.push(...transitionAdvisory(edgeTotals.transitionLf, transitionPlanes));
+  const battenSpacings = unique(clipLimited.map((c) => c.battenSpacingIn));
+  for (const bs of battenSpacings) advisories.push(...clipSpacingBattenAdvisory(clipLimited.filter((c) => c.battenSpacingIn === bs), bs));
+  advisories.push(...fallProtectionAdvisories(scopedPlanes));
+  advisories.push(...windAdvisories({ planes: scopedPlanes, heightMissing: ed.heightMissing, lowSlopeWithoutHeight: sums.lowSlopeWithoutHeight, aFt: ed.aFt }));
+  advisories.push(...vent.advisories, ...thermalAdvisories);
+
+  // ---- materials (rounded once, here) -----------------------------------------------------------------
+  const { lines, deckSheets, panelScrews } = materialLines({ rules, sums, edgeTotals, trimRuns, trimLaps, trimFasteners, vent, ridgeRuns, dominantStack });
 
   // ---- result -----------------------------------------------------------------------------------------
   const fasteners: FastenersResult = { clips, clipScrews, panelScrews, trimFasteners, spacerFasteners, zones };
