@@ -33,7 +33,7 @@ import { rollsFor, type RollSpec } from "./layers/rolls";
 import { LUMBER, type LumberNominal } from "./lumber";
 import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type MaterialLine } from "./materials";
 import type { EdgeType } from "./roof/edge-types";
-import { analyseEdges, buildRuns, pieceAt, TOTAL_KEY, type EdgePiece, type EdgeRun, type EdgeTotals } from "./roof/edges";
+import { analyseEdges, buildRuns, edgeTotalsOf, pieceAt, type EdgePiece, type EdgeRun, type EdgeTotals } from "./roof/edges";
 import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
 import { layoutPanels, PanelPieces } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
@@ -82,8 +82,13 @@ export interface TakeoffOptions {
 
 /** The distinct values of a list, in first-seen order. */
 function unique<T>(xs: readonly T[]): T[] {
+  const seen = new Set<T>();
   const out: T[] = [];
-  for (const x of xs) if (!out.includes(x)) out.push(x);
+  for (const x of xs) {
+    if (seen.has(x)) continue;
+    seen.add(x);
+    out.push(x);
+  }
   return out;
 }
 
@@ -686,8 +691,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       inScope(i) ? ps.map((pc) => ({ ...pc, counted: !pc.partner || !inScope(pc.partner.planeIdx) || pc.planeIdx < pc.partner.planeIdx })) : [],
     );
     runs = buildRuns(byPlane);
-    edgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
-    for (const ps of byPlane) for (const pc of ps) if (pc.counted) edgeTotals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
+    edgeTotals = edgeTotalsOf(byPlane);
   }
   const scopedIds = new Set(scoped.map((i) => input.planes[i].id));
   advisories.push(...edgesAll.advisories.filter((a) => a.planeIds.some((id) => scopedIds.has(id))));

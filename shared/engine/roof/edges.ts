@@ -60,7 +60,7 @@ export interface EdgeTotals {
 }
 
 /** The EdgeTotals field of each edge type. */
-export const TOTAL_KEY: Record<EdgeType, keyof EdgeTotals> = {
+const TOTAL_KEY: Record<EdgeType, keyof EdgeTotals> = {
   eave: "eaveLf",
   rake: "rakeLf",
   ridge: "ridgeLf",
@@ -70,6 +70,13 @@ export const TOTAL_KEY: Record<EdgeType, keyof EdgeTotals> = {
   sidewall: "sidewallLf",
   headwall: "headwallLf",
 };
+
+/** True length per edge type over the counted pieces (each shared piece once). */
+export function edgeTotalsOf(byPlane: EdgePiece[][]): EdgeTotals {
+  const totals: EdgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
+  for (const pieces of byPlane) for (const pc of pieces) if (pc.counted) totals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
+  return totals;
+}
 
 /** A run: counted pieces of one type joined end to end along one straight line (one ridge, one eave …). */
 export interface EdgeRun {
@@ -338,10 +345,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
     }
   }
 
-  const totals: EdgeTotals = { eaveLf: 0, rakeLf: 0, ridgeLf: 0, hipLf: 0, valleyLf: 0, transitionLf: 0, sidewallLf: 0, headwallLf: 0 };
-  for (const pieces of byPlane) for (const pc of pieces) if (pc.counted) totals[TOTAL_KEY[pc.type]] += pc.trueLengthFt;
-
-  return { byPlane, totals, runs: buildRuns(byPlane), advisories };
+  return { byPlane, totals: edgeTotalsOf(byPlane), runs: buildRuns(byPlane), advisories };
 }
 
 /**

@@ -128,43 +128,10 @@ export function bbox(poly: readonly Pt[]): [number, number, number, number] {
 }
 
 /**
- * Cross-section of a polygon (in local (s, v) coordinates) along the line v = c: the intervals of s
- * inside the polygon, sorted. Uses the half-open crossing rule, so a line through a vertex or along a
- * horizontal edge is counted once.
- */
-export function intervalsAtV(poly: readonly Pt[], c: number): [number, number][] {
-  const xs: number[] = [];
-  const n = poly.length;
-  for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
-    if (a[1] > c !== b[1] > c) xs.push(a[0] + ((c - a[1]) * (b[0] - a[0])) / (b[1] - a[1]));
-  }
-  sortSmall(xs);
-  const out: [number, number][] = [];
-  for (let i = 0; i + 1 < xs.length; i += 2) out.push([xs[i], xs[i + 1]]);
-  return out;
-}
-
-/** Cross-section along s = c: the intervals of v inside the polygon, sorted. */
-export function intervalsAtS(poly: readonly Pt[], c: number): [number, number][] {
-  const vs: number[] = [];
-  const n = poly.length;
-  for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
-    if (a[0] > c !== b[0] > c) vs.push(a[1] + ((c - a[0]) * (b[1] - a[1])) / (b[0] - a[0]));
-  }
-  sortSmall(vs);
-  const out: [number, number][] = [];
-  for (let i = 0; i + 1 < vs.length; i += 2) out.push([vs[i], vs[i + 1]]);
-  return out;
-}
-
-/**
  * Crossings of a polygon (local (s, v)) with the line v = c (axis 1) or s = c (axis 0), sorted along the
  * line, written into `out` (emptied first): inside intervals are [out[0], out[1]], [out[2], out[3]] …
- * Same crossing rule as intervalsAtV/S. Returns `out`; a caller keeps one array for many lines.
+ * Uses the half-open crossing rule, so a line through a vertex or along an edge parallel to it is counted
+ * once. Returns `out`; a caller keeps one array for many lines.
  */
 export function crossingsInto(poly: readonly Pt[], axis: 0 | 1, c: number, out: number[]): number[] {
   const o = axis === 1 ? 0 : 1; // the coordinate measured along the line
