@@ -5,9 +5,9 @@
 import { afterAll, inject } from "vitest";
 import { closeTestSequelize, testSequelize } from "../helpers/db";
 import { stopTestStores } from "../helpers/app";
-import { faultsEnv } from "./helpers/faults-db";
+import { testEnv } from "../helpers/test-db";
 
-Object.assign(process.env, faultsEnv(inject("faultsDb")));
+Object.assign(process.env, testEnv(inject("faultsDb")));
 testSequelize(); // initialises the models on that database
 
 afterAll(async () => {

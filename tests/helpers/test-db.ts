@@ -26,7 +26,7 @@ export const startTestMariaDb = (log?: (m: string) => void) =>
   });
 
 /** The environment every test process gets: the test database and fast, quiet settings. */
-export const testEnv = (db: LocalDb): Record<string, string> => ({
+export const testEnv = (db: Pick<LocalDb, "host" | "port" | "database" | "user" | "password">): Record<string, string> => ({
   NODE_ENV: "test",
   DB_HOST: db.host,
   DB_PORT: String(db.port),

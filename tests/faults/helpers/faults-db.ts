@@ -24,17 +24,6 @@ export const faultsDbOptions = () => ({
   user: "app_faults",
 });
 
-/** The environment that points a process (a test file or a server) at the drills' database. */
-export const faultsEnv = (db: FaultsDb): Record<string, string> => ({
-  NODE_ENV: "test",
-  DB_HOST: db.host,
-  DB_PORT: String(db.port),
-  DB_NAME: db.database,
-  DB_USER: db.user,
-  DB_PASSWORD: db.password,
-  BCRYPT_ROUNDS: "4",
-  LOG_LEVEL: "silent",
-});
 
 const ADMIN = ["/usr/bin/mariadb-admin", "/usr/local/bin/mariadb-admin"].find((p) => existsSync(p)) ?? "mariadb-admin";
 const cnf = (db: FaultsDb) => path.join(db.base, "my.cnf");

@@ -3,13 +3,14 @@
  * on the drills' database: the child is the server itself, so a signal sent to it reaches the server.
  */
 import { startServerProcess as startChild, type ServerProcess } from "../../helpers/server-process";
-import { faultsEnv, type FaultsDb } from "./faults-db";
+import { type FaultsDb } from "./faults-db";
+import { testEnv } from "../../helpers/test-db";
 
 export type { ServerProcess };
 
 export function startServerProcess(db: FaultsDb, env: Record<string, string> = {}): Promise<ServerProcess> {
   return startChild({
-    ...faultsEnv(db),
+    ...testEnv(db),
     PORT: "0",
     HOST: "127.0.0.1",
     LOG_LEVEL: "warn",
