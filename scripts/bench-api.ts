@@ -22,13 +22,13 @@ import { spawn } from "node:child_process";
 import { loadDotEnv } from "./lib/env";
 import { freshBenchDatabase } from "./lib/bench-db";
 import { percentile, signInOverHttp } from "./lib/bench-http";
+import { twelvePlaneRoof } from "./lib/bench-roofs";
 import { Company, Customer, Job, Roof, User } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
 import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
-import { gableRoof, hipRoof, lShapeGableRoof, shedRoof } from "../shared/engine/roof/generators";
 import { jobSiteSchema, JOB_STATUSES, type JobStatus } from "../shared/schemas/job";
-import { roofSaveSchema, type RoofSaveValues } from "../shared/schemas/roof";
+import { roofSaveSchema } from "../shared/schemas/roof";
 
 loadDotEnv();
 process.env.NODE_ENV ??= "development";
@@ -61,32 +61,6 @@ const weighted = (i: number): JobStatus => {
   return "lead";
 };
 
-/** A realistic 12-plane roof: a hip house, an L-shaped wing with valleys, a detached garage gable, two porches. */
-function twelvePlaneRoof(version: number): RoofSaveValues {
-  const planes = [
-    ...hipRoof(44, 30, 6, { idPrefix: "main", stackId: "battens" }),
-    ...lShapeGableRoof({ mainWidthFt: 40, mainDepthFt: 26, wingWidthFt: 18, wingDepthFt: 16, wingOffsetFt: 6 }, 8, { idPrefix: "ell", origin: [60, 0], stackId: "battens" }),
-    ...gableRoof(24, 22, 5, { idPrefix: "garage", origin: [0, 50] }),
-    ...shedRoof(16, 8, 2, { idPrefix: "porch-a", origin: [40, 50], stackId: "mesh" }),
-    ...shedRoof(12, 6, 2, { idPrefix: "porch-b", origin: [64, 50], stackId: "mesh" }),
-  ];
-  return {
-    planes,
-    stacks: [
-      { id: "plain", name: "Synthetic, panels on the deck", underlayment: { kind: "synthetic", highTemp: true }, spacer: { kind: "none" } },
-      {
-        id: "battens",
-        name: "1x4 battens with foil",
-        underlayment: { kind: "synthetic", highTemp: true },
-        spacer: { kind: "battens", battens: { nominal: "1x4", spacingIn: 24 } },
-        radiantBarrier: { kind: "foil" },
-      },
-      { id: "mesh", name: "Mesh on the porches", underlayment: { kind: "self-adhered" }, spacer: { kind: "mesh", thicknessIn: 0.375 } },
-    ],
-    defaultStackId: "plain",
-    version,
-  };
-}
 
 // ---- measuring ------------------------------------------------------------------------------------------
 

@@ -26,14 +26,14 @@ import { fileURLToPath } from "node:url";
 import { loadDotEnv } from "./lib/env";
 import { freshBenchDatabase } from "./lib/bench-db";
 import { percentile, signInOverHttp } from "./lib/bench-http";
+import { twentyPlaneRoof } from "./lib/bench-roofs";
 import { Company, Customer, Job, Roof, User } from "../server/models/index";
 import { hashPassword } from "../server/auth/password";
 import { seedDemoPriceBook } from "../server/db/seeders/demo-price-book";
 import { computeStoredTakeoff, takeoffSquares } from "../server/services/roof-takeoff";
 import { QuotesService } from "../server/services/quotes.service";
-import { gableRoof, hipRoof, lShapeGableRoof, shedRoof } from "../shared/engine/roof/generators";
 import { jobSiteSchema, JOB_STATUSES, type JobStatus } from "../shared/schemas/job";
-import { roofSaveSchema, type RoofSaveValues } from "../shared/schemas/roof";
+import { roofSaveSchema } from "../shared/schemas/roof";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -49,39 +49,8 @@ const STREETS = ["Heron", "Larch", "Millpond", "Copse", "Wren", "Bramble", "Sedg
 const TOWNS = ["Brindlemere", "Harlow Bend", "Oxley Cross", "Fenwick Hollow"];
 const pick = <T>(xs: readonly T[], i: number) => xs[i % xs.length];
 
-/** A 20-plane house: a hip main block, an L-shaped wing with valleys, a garage gable, three gable dormers' worth of porches and sheds. */
-function houseRoof(version: number): RoofSaveValues {
-  const planes = [
-    ...hipRoof(46, 32, 7, { idPrefix: "main", stackId: "battens" }),
-    ...lShapeGableRoof({ mainWidthFt: 40, mainDepthFt: 26, wingWidthFt: 18, wingDepthFt: 16, wingOffsetFt: 6 }, 8, { idPrefix: "ell", origin: [62, 0], stackId: "battens" }),
-    ...gableRoof(24, 22, 5, { idPrefix: "garage", origin: [0, 52] }),
-    ...gableRoof(10, 8, 9, { idPrefix: "breezeway", origin: [26, 52] }),
-    ...hipRoof(14, 12, 4, { idPrefix: "bay", origin: [110, 0] }),
-    ...shedRoof(16, 8, 2, { idPrefix: "porch-a", origin: [40, 52], stackId: "mesh" }),
-    ...shedRoof(12, 6, 2, { idPrefix: "porch-b", origin: [60, 52], stackId: "mesh" }),
-    ...shedRoof(10, 6, 3, { idPrefix: "porch-c", origin: [76, 52], stackId: "mesh" }),
-    ...shedRoof(8, 5, 3, { idPrefix: "porch-d", origin: [90, 52], stackId: "mesh" }),
-  ];
-  return {
-    planes,
-    stacks: [
-      { id: "plain", name: "Synthetic, panels on the deck", underlayment: { kind: "synthetic", highTemp: true }, spacer: { kind: "none" } },
-      {
-        id: "battens",
-        name: "1x4 battens with foil",
-        underlayment: { kind: "synthetic", highTemp: true },
-        spacer: { kind: "battens", battens: { nominal: "1x4", spacingIn: 24 } },
-        radiantBarrier: { kind: "foil" },
-      },
-      { id: "mesh", name: "Mesh on the porches", underlayment: { kind: "self-adhered" }, spacer: { kind: "mesh", thicknessIn: 0.375 } },
-    ],
-    defaultStackId: "plain",
-    version,
-  };
-}
 
 // ---- measuring ----------------------------------------------------------------------------------------
-
 
 interface Mem {
   rss: number;
@@ -170,7 +139,7 @@ async function main() {
   });
   for (let i = 0; i < jobRows.length; i += 1000) await Job.bulkCreate(jobRows.slice(i, i + 1000));
   const jobIds = (await Job.findAll({ where: { companyId: company.id }, attributes: ["id"], order: [["id", "ASC"]] })).map((j) => j.id);
-  const doc = roofSaveSchema.parse(houseRoof(0));
+  const doc = roofSaveSchema.parse(twentyPlaneRoof(0));
   const { version: _v, underlay: _u, ...document } = doc;
   const takeoff = await computeStoredTakeoff(document, site, company.id);
   const roofed = jobIds.slice(0, ROOFED);
@@ -229,7 +198,7 @@ async function main() {
   // ---- the requests of the mix ------------------------------------------------------------------------------
   const boardPaths = ["/api/jobs?page=1&pageSize=25&sort=-updatedAt", "/api/jobs?page=2&pageSize=25&status=estimating&sort=-updatedAt", "/api/jobs?pageSize=25&q=heron"];
   const takeoffBody = JSON.stringify({ site, planes: document.planes, stacks: document.stacks, defaultStackId: document.defaultStackId });
-  const roofJson = (v: number) => JSON.stringify(houseRoof(v));
+  const roofJson = (v: number) => JSON.stringify(twentyPlaneRoof(v));
   const pdfPath = `/api/quotes/${quoteId}/pdf`;
 
   // Every request once before measuring: each must succeed.
