@@ -1,6 +1,4 @@
-import { errorMessage } from "@/lib/api-client";
-import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { PageHeader } from "@/components/layout/page-header";
 import { useCompany } from "@/lib/queries/company";
@@ -18,12 +16,7 @@ export function CompanyRoute() {
           <Spinner label="Loading company profile" /> <span>Loading…</span>
         </div>
       ) : company.isError ? (
-        <Alert tone="error" title="The company profile could not be loaded">
-          <p>{errorMessage(company.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => company.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The company profile could not be loaded" error={company.error} onRetry={() => company.refetch()} />
       ) : (
         <CompanyProfileForm company={company.data} />
       )}

@@ -1,6 +1,7 @@
 import { Link, useParams } from "react-router-dom";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { NotFoundRoute } from "@/app/routes/not-found";
 import { paths } from "@/config/paths";
@@ -79,12 +80,7 @@ export function InstallPacketRoute() {
           )}
         </Alert>
       ) : packet.isError ? (
-        <Alert tone="error" title="The install packet could not be loaded">
-          <p>{errorMessage(packet.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => packet.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The install packet could not be loaded" error={packet.error} onRetry={() => packet.refetch()} />
       ) : (
         <Spinner label="Loading the install packet" />
       )}

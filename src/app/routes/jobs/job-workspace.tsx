@@ -1,15 +1,14 @@
 import { lazy, Suspense, type ComponentType } from "react";
 import { Navigate, NavLink, useParams } from "react-router-dom";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { NotFoundRoute } from "@/app/routes/not-found";
 import { CREW_SECTIONS, JOB_SECTIONS, paths, type JobSection } from "@/config/paths";
 import { useMe } from "@/lib/auth";
 import { cn } from "@/lib/cn";
 import { canSeePricing } from "@shared/auth/roles";
-import { ApiError, errorMessage } from "@/lib/api-client";
-import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
+import { ApiError } from "@/lib/api-client";
 import { useJob } from "@/lib/queries/jobs";
 import { JobHeader, JobHeaderSkeleton } from "@/features/jobs/components/job-header";
 
@@ -52,12 +51,7 @@ export function JobWorkspaceRoute() {
       {job.data ? (
         <JobHeader job={job.data} showQuoteTotal={me ? canSeePricing(me.role) : false} />
       ) : job.isError ? (
-        <Alert tone="error" title="The job could not be loaded">
-          <p>{errorMessage(job.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => job.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The job could not be loaded" error={job.error} onRetry={() => job.refetch()} />
       ) : (
         <JobHeaderSkeleton />
       )}

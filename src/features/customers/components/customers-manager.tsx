@@ -1,11 +1,10 @@
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
 import type { CustomerDto } from "@shared/schemas/customer";
-import { errorMessage } from "@/lib/api-client";
-import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Pager } from "@/components/ui/pager";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
@@ -101,12 +100,7 @@ export function CustomersManager() {
           <Spinner label="Loading customers" /> <span>Loading customers…</span>
         </div>
       ) : list.isError && !data ? (
-        <Alert tone="error" title="The customers could not be loaded">
-          <p>{errorMessage(list.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => list.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The customers could not be loaded" error={list.error} onRetry={() => list.refetch()} />
       ) : data && data.data.length === 0 ? (
         <EmptyState
           title={state.q ? "No customers match" : state.archived ? "No archived customers" : "No customers yet"}

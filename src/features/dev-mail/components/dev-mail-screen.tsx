@@ -1,10 +1,10 @@
 import { useState } from "react";
 import { useSearchParams } from "react-router-dom";
-import { ApiError, errorMessage } from "@/lib/api-client";
+import { ApiError } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
-import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { PageHeader } from "@/components/layout/page-header";
 import { attachmentUrl, recipients, useDevMail, type CaughtMail } from "@/features/dev-mail/api/queries";
@@ -141,12 +141,7 @@ export function DevMailScreen() {
     return (
       <>
         {header}
-        <Alert tone="error" title="The inbox could not be loaded">
-          <p>{errorMessage(q.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => q.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The inbox could not be loaded" error={q.error} onRetry={() => q.refetch()} />
       </>
     );
   }

@@ -1,9 +1,7 @@
 import { useState } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { errorMessage } from "@/lib/api-client";
-import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Pager } from "@/components/ui/pager";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
@@ -45,12 +43,7 @@ export function JobLogSection({ jobId }: { jobId: number }) {
   }
   if (log.isError && !log.data) {
     return (
-      <Alert tone="error" title="The log could not be loaded">
-        <p>{errorMessage(log.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => log.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The log could not be loaded" error={log.error} onRetry={() => log.refetch()} />
     );
   }
   const { data: events, meta } = log.data;

@@ -11,6 +11,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Pager } from "@/components/ui/pager";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
@@ -166,12 +167,7 @@ export function JobsBoard({ me, customerInputs }: { me: UserDto; customerInputs:
             <Spinner label="Loading jobs" /> <span>Loading jobs…</span>
           </div>
         ) : jobs.isError && !data ? (
-          <Alert tone="error" title="The jobs could not be loaded">
-            <p>{errorMessage(jobs.error)}</p>
-            <Button variant="secondary" size="sm" className="mt-2" onClick={() => jobs.refetch()}>
-              Try again
-            </Button>
-          </Alert>
+          <LoadFailed title="The jobs could not be loaded" error={jobs.error} onRetry={() => jobs.refetch()} />
         ) : data && data.data.length === 0 ? (
           filtered || board.archived || board.page > 1 ? (
             <EmptyState

@@ -1,9 +1,9 @@
 import { useState } from "react";
-import { errorMessage } from "@/lib/api-client";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { useMe } from "@/lib/auth";
@@ -36,12 +36,7 @@ export function SiteSection({ jobId }: { jobId: number }) {
   }
   if (job.isError) {
     return (
-      <Alert tone="error" title="The site could not be loaded">
-        <p>{errorMessage(job.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => job.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The site could not be loaded" error={job.error} onRetry={() => job.refetch()} />
     );
   }
 

@@ -12,6 +12,7 @@ import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { Input } from "@/components/ui/input";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
@@ -105,12 +106,7 @@ export function ItemsTab({ canEdit }: { canEdit: boolean }) {
   }
   if (items.isError) {
     return (
-      <Alert tone="error" title="The items could not be loaded">
-        <p>{errorMessage(items.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => items.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The items could not be loaded" error={items.error} onRetry={() => items.refetch()} />
     );
   }
 

@@ -13,6 +13,7 @@ import { ApiError, errorMessage } from "@/lib/api-client";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/input";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
@@ -72,12 +73,7 @@ export function LabourTab({ canEdit }: { canEdit: boolean }) {
   }
   if (labor.isError) {
     return (
-      <Alert tone="error" title="The labour rates could not be loaded">
-        <p>{errorMessage(labor.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => labor.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The labour rates could not be loaded" error={labor.error} onRetry={() => labor.refetch()} />
     );
   }
   return (

@@ -1,7 +1,6 @@
-import { errorMessage } from "@/lib/api-client";
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
-import { Button } from "@/components/ui/button";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { useMaterialMapping } from "@/lib/queries/price-book";
@@ -20,12 +19,7 @@ export function MappingTab() {
   }
   if (mapping.isError) {
     return (
-      <Alert tone="error" title="The mapping could not be loaded">
-        <p>{errorMessage(mapping.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => mapping.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The mapping could not be loaded" error={mapping.error} onRetry={() => mapping.refetch()} />
     );
   }
   const { data, conflicts } = mapping.data;

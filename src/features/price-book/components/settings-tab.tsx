@@ -8,6 +8,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
@@ -40,12 +41,7 @@ export function SettingsTab({ canEdit }: { canEdit: boolean }) {
   }
   if (settings.isError) {
     return (
-      <Alert tone="error" title="The pricing settings could not be loaded">
-        <p>{errorMessage(settings.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => settings.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The pricing settings could not be loaded" error={settings.error} onRetry={() => settings.refetch()} />
     );
   }
   return <SettingsForm settings={settings.data} canEdit={canEdit} />;

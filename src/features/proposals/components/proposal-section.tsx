@@ -2,12 +2,11 @@ import { useState } from "react";
 import type { ProposalDto, ProposalLinkStatus } from "@shared/schemas/proposal-api";
 import { formatMoney } from "@shared/schemas/proposal";
 import type { QuoteStatus, QuoteSummary } from "@shared/schemas/quote";
-import { errorMessage } from "@/lib/api-client";
 import { cn } from "@/lib/cn";
-import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { useJobForProposal, useJobProposals, useJobQuotesForProposal } from "@/features/proposals/api/queries";
 import { ProposalProgressSteps, formatWhen } from "@/features/proposals/components/proposal-progress-steps";
@@ -147,12 +146,7 @@ export function ProposalSection({ jobId }: { jobId: number }) {
           </div>
         ) : quotes.isError ? (
           <div className="p-4">
-            <Alert tone="error" title="The quotes could not be loaded">
-              <p>{errorMessage(quotes.error)}</p>
-              <Button variant="secondary" size="sm" className="mt-2" onClick={() => quotes.refetch()}>
-                Try again
-              </Button>
-            </Alert>
+            <LoadFailed title="The quotes could not be loaded" error={quotes.error} onRetry={() => quotes.refetch()} />
           </div>
         ) : live.length === 0 ? (
           <EmptyState
@@ -181,12 +175,7 @@ export function ProposalSection({ jobId }: { jobId: number }) {
           </div>
         ) : proposals.isError ? (
           <div className="p-4">
-            <Alert tone="error" title="The proposals could not be loaded">
-              <p>{errorMessage(proposals.error)}</p>
-              <Button variant="secondary" size="sm" className="mt-2" onClick={() => proposals.refetch()}>
-                Try again
-              </Button>
-            </Alert>
+            <LoadFailed title="The proposals could not be loaded" error={proposals.error} onRetry={() => proposals.refetch()} />
           </div>
         ) : proposals.data.length === 0 ? (
           <p className="px-4 py-6 text-sm text-steel-600">Nothing sent yet. Once you send the proposal, you'll see here when the homeowner opens, accepts or declines it, and the deposit.</p>

@@ -10,6 +10,7 @@ import { paths } from "@/config/paths";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Textarea } from "@/components/ui/textarea";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
@@ -55,12 +56,7 @@ export function ApprovalReview({ quoteId }: { quoteId: number }) {
           <Spinner label="Loading quote" /> <span>Loading…</span>
         </div>
       ) : quote.isError ? (
-        <Alert tone="error" title="The quote could not be loaded">
-          <p>{errorMessage(quote.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => quote.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The quote could not be loaded" error={quote.error} onRetry={() => quote.refetch()} />
       ) : (
         <ReviewBody quote={quote.data} customer={entry ? `${entry.customerName} · ${entry.siteAddress}` : null} />
       )}

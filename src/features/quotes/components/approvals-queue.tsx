@@ -1,10 +1,8 @@
 import { useMemo } from "react";
 import { Link, useNavigate } from "react-router-dom";
-import { errorMessage } from "@/lib/api-client";
 import { paths } from "@/config/paths";
-import { Alert } from "@/components/ui/alert";
-import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { formatCents, formatDateTime } from "@/lib/money";
@@ -38,12 +36,7 @@ export function ApprovalsQueue() {
   }
   if (queue.isError) {
     return (
-      <Alert tone="error" title="The queue could not be loaded">
-        <p>{errorMessage(queue.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => queue.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The queue could not be loaded" error={queue.error} onRetry={() => queue.refetch()} />
     );
   }
   if (rows.length === 0) {

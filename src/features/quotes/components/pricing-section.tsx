@@ -9,6 +9,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { useMe } from "@/lib/auth";
@@ -108,12 +109,7 @@ export function PricingSection({ jobId }: { jobId: number }) {
           <Spinner label="Loading quotes" /> <span>Loading quotes…</span>
         </div>
       ) : quotes.isError ? (
-        <Alert tone="error" title="The quotes could not be loaded">
-          <p>{errorMessage(quotes.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => quotes.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The quotes could not be loaded" error={quotes.error} onRetry={() => quotes.refetch()} />
       ) : !selected ? (
         <EmptyState
           title="No quote yet"
@@ -145,12 +141,7 @@ function QuotePanel({ quoteId }: { quoteId: number }) {
   }
   if (quote.isError) {
     return (
-      <Alert tone="error" title="The quote could not be loaded">
-        <p>{errorMessage(quote.error)}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => quote.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The quote could not be loaded" error={quote.error} onRetry={() => quote.refetch()} />
     );
   }
 

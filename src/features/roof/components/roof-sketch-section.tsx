@@ -2,8 +2,8 @@ import { useEffect, useRef, useState } from "react";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
-import { errorMessage } from "@/lib/api-client";
 import { useMe } from "@/lib/auth";
 import { useRoof } from "@/lib/queries/roof";
 import { roofDraftStore, useRoofDraft, type RoofDoc } from "@/features/roof/api/roof-draft";
@@ -75,12 +75,7 @@ export function RoofSketchSection({ jobId }: { jobId: number }) {
 
   if (roof.isError)
     return (
-      <Alert tone="error" title="The roof could not be loaded">
-        <p>{errorMessage(roof.error)}</p>
-        <Button size="sm" variant="secondary" className="mt-2" onClick={() => void roof.refetch()}>
-          Try again
-        </Button>
-      </Alert>
+      <LoadFailed title="The roof could not be loaded" error={roof.error} onRetry={() => roof.refetch()} />
     );
   if (!roof.data || !draft || !me.data) return <Spinner label="Loading the roof" />;
 

@@ -7,6 +7,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
+import { LoadFailed } from "@/components/ui/load-failed";
 import { Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
@@ -76,12 +77,7 @@ export function TeamManager({ currentUserId }: { currentUserId: number }) {
           <Spinner label="Loading team" /> <span>Loading team…</span>
         </div>
       ) : team.isError ? (
-        <Alert tone="error" title="The team list could not be loaded">
-          <p>{errorMessage(team.error)}</p>
-          <Button variant="secondary" size="sm" className="mt-2" onClick={() => team.refetch()}>
-            Try again
-          </Button>
-        </Alert>
+        <LoadFailed title="The team list could not be loaded" error={team.error} onRetry={() => team.refetch()} />
       ) : team.data.length === 0 ? (
         <EmptyState title="No team members yet" description="Add the estimators and crew leads who use Ridgewright." />
       ) : (
