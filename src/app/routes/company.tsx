@@ -1,5 +1,5 @@
 import { LoadFailed } from "@/components/ui/load-failed";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { PageHeader } from "@/components/layout/page-header";
 import { useCompany } from "@/lib/queries/company";
 import { CompanyProfileForm } from "@/features/company/components/company-profile-form";
@@ -12,9 +12,7 @@ export function CompanyRoute() {
       <title>Company · Ridgewright</title>
       <PageHeader title="Company" description="The details, terms and numbering printed on your proposals." />
       {company.isPending ? (
-        <div className="flex items-center gap-2 py-10 text-steel-500">
-          <Spinner label="Loading company profile" /> <span>Loading…</span>
-        </div>
+        <LoadingRow label="Loading company profile" />
       ) : company.isError ? (
         <LoadFailed title="The company profile could not be loaded" error={company.error} onRetry={() => company.refetch()} />
       ) : (

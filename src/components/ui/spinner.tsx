@@ -26,3 +26,12 @@ export function FullPageSpinner({ label = "Loading" }: { label?: string }) {
     </div>
   );
 }
+
+/** A section's data on its way: the spinner (announced as `label`) and `text` beside it. */
+export function LoadingRow({ label, text = "Loading…" }: { label: string; text?: string }) {
+  return (
+    <div className="flex items-center gap-2 py-10 text-steel-500">
+      <Spinner label={label} /> <span>{text}</span>
+    </div>
+  );
+}

@@ -14,7 +14,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { Input } from "@/components/ui/input";
 import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { toast } from "@/components/ui/toast";
 import { useCatalogItems } from "@/lib/queries/price-book";
@@ -99,9 +99,7 @@ export function ItemsTab({ canEdit }: { canEdit: boolean }) {
 
   if (items.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading items" /> <span>Loading items…</span>
-      </div>
+      <LoadingRow label="Loading items" text="Loading items…" />
     );
   }
   if (items.isError) {

@@ -15,7 +15,7 @@ import { Button } from "@/components/ui/button";
 import { Input } from "@/components/ui/input";
 import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { toast } from "@/components/ui/toast";
 import { useLaborRates } from "@/lib/queries/price-book";
@@ -66,9 +66,7 @@ export function LabourTab({ canEdit }: { canEdit: boolean }) {
   const labor = useLaborRates();
   if (labor.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading labour rates" /> <span>Loading…</span>
-      </div>
+      <LoadingRow label="Loading labour rates" />
     );
   }
   if (labor.isError) {

@@ -1,7 +1,7 @@
 import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { LoadFailed } from "@/components/ui/load-failed";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { useMaterialMapping } from "@/lib/queries/price-book";
 import { categoryLabel } from "@/features/price-book/components/items-tab";
@@ -12,9 +12,7 @@ export function MappingTab() {
   const mapping = useMaterialMapping();
   if (mapping.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading mapping" /> <span>Loading…</span>
-      </div>
+      <LoadingRow label="Loading mapping" />
     );
   }
   if (mapping.isError) {

@@ -10,7 +10,7 @@ import { Field } from "@/components/ui/field";
 import { Input } from "@/components/ui/input";
 import { LoadFailed } from "@/components/ui/load-failed";
 import { Select } from "@/components/ui/select";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { usePricingSettings } from "@/lib/queries/price-book";
 import { useSaveSettings } from "@/features/price-book/api/mutations";
@@ -34,9 +34,7 @@ export function SettingsTab({ canEdit }: { canEdit: boolean }) {
   const settings = usePricingSettings();
   if (settings.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading settings" /> <span>Loading…</span>
-      </div>
+      <LoadingRow label="Loading settings" />
     );
   }
   if (settings.isError) {

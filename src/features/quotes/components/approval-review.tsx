@@ -12,7 +12,7 @@ import { Button } from "@/components/ui/button";
 import { Field } from "@/components/ui/field";
 import { LoadFailed } from "@/components/ui/load-failed";
 import { Textarea } from "@/components/ui/textarea";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
 import { formatCents, formatDateTime, formatPct } from "@/lib/money";
@@ -52,9 +52,7 @@ export function ApprovalReview({ quoteId }: { quoteId: number }) {
         / review
       </nav>
       {quote.isPending ? (
-        <div className="flex items-center gap-2 py-10 text-steel-500">
-          <Spinner label="Loading quote" /> <span>Loading…</span>
-        </div>
+        <LoadingRow label="Loading quote" />
       ) : quote.isError ? (
         <LoadFailed title="The quote could not be loaded" error={quote.error} onRetry={() => quote.refetch()} />
       ) : (

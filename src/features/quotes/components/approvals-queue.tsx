@@ -3,7 +3,7 @@ import { Link, useNavigate } from "react-router-dom";
 import { paths } from "@/config/paths";
 import { EmptyState } from "@/components/ui/empty-state";
 import { LoadFailed } from "@/components/ui/load-failed";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { Table, TBody, Td, Th, THead, Tr } from "@/components/ui/table";
 import { formatCents, formatDateTime } from "@/lib/money";
 import { useApprovalsQueue } from "@/lib/queries/quotes";
@@ -29,9 +29,7 @@ export function ApprovalsQueue() {
 
   if (queue.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading the queue" /> <span>Loading…</span>
-      </div>
+      <LoadingRow label="Loading the queue" />
     );
   }
   if (queue.isError) {

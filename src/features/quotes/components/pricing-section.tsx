@@ -10,7 +10,7 @@ import { Button } from "@/components/ui/button";
 import { EmptyState } from "@/components/ui/empty-state";
 import { ErrorBoundary } from "@/components/ui/error-boundary";
 import { LoadFailed } from "@/components/ui/load-failed";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow, Spinner } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { useMe } from "@/lib/auth";
 import { formatCents, formatDateTime } from "@/lib/money";
@@ -105,9 +105,7 @@ export function PricingSection({ jobId }: { jobId: number }) {
       )}
 
       {quotes.isPending ? (
-        <div className="flex items-center gap-2 py-10 text-steel-500">
-          <Spinner label="Loading quotes" /> <span>Loading quotes…</span>
-        </div>
+        <LoadingRow label="Loading quotes" text="Loading quotes…" />
       ) : quotes.isError ? (
         <LoadFailed title="The quotes could not be loaded" error={quotes.error} onRetry={() => quotes.refetch()} />
       ) : !selected ? (
@@ -134,9 +132,7 @@ function QuotePanel({ quoteId }: { quoteId: number }) {
 
   if (quote.isPending) {
     return (
-      <div className="flex items-center gap-2 py-10 text-steel-500">
-        <Spinner label="Loading quote" /> <span>Loading quote…</span>
-      </div>
+      <LoadingRow label="Loading quote" text="Loading quote…" />
     );
   }
   if (quote.isError) {

@@ -8,7 +8,7 @@ import { Button } from "@/components/ui/button";
 import { Dialog } from "@/components/ui/dialog";
 import { EmptyState } from "@/components/ui/empty-state";
 import { LoadFailed } from "@/components/ui/load-failed";
-import { Spinner } from "@/components/ui/spinner";
+import { LoadingRow } from "@/components/ui/spinner";
 import { toast } from "@/components/ui/toast";
 import { PageHeader } from "@/components/layout/page-header";
 import { useTeamMembers } from "@/lib/queries/users";
@@ -73,9 +73,7 @@ export function TeamManager({ currentUserId }: { currentUserId: number }) {
       )}
 
       {team.isPending ? (
-        <div className="flex items-center gap-2 py-10 text-steel-500">
-          <Spinner label="Loading team" /> <span>Loading team…</span>
-        </div>
+        <LoadingRow label="Loading team" text="Loading team…" />
       ) : team.isError ? (
         <LoadFailed title="The team list could not be loaded" error={team.error} onRetry={() => team.refetch()} />
       ) : team.data.length === 0 ? (
