@@ -118,6 +118,32 @@ describe("jobs board", () => {
     await waitFor(() => expect(within(screen.getByRole("table", { name: "Jobs" })).getAllByRole("row")).toHaveLength(2));
   });
 
+  it("Enter searches at once, and the pause timer does not navigate a second time afterwards", async () => {
+    stubApi({
+      "GET /api/auth/me": () => json(200, { user: owner }),
+      "GET /api/users": () => json(200, { data: team }),
+      "GET /api/jobs": (call) => json(200, jobsQuery(call.path).get("q") ? page([rows[0]!]) : page(rows)),
+    });
+    const { router } = renderApp("/jobs");
+    await findTable();
+    const box = screen.getByRole("searchbox", { name: "Search jobs" });
+    const user = userEvent.setup();
+    await user.type(box, "quarry");
+    const keysBefore = router.state.location.key;
+    const navigations: string[] = [];
+    const stop = router.subscribe((state) => {
+      if (!navigations.includes(state.location.key) && state.location.key !== keysBefore) navigations.push(state.location.key);
+    });
+    await user.keyboard("{Enter}");
+    await waitFor(() => expect(search(router).get("q")).toBe("quarry"));
+    // Enter ran within the 300 ms pause of the last keystroke: a late second report would replace the
+    // location again (and, had the person clicked away meanwhile, pull them back to the board)
+    await new Promise((r) => setTimeout(r, 450));
+    stop();
+    expect(navigations).toHaveLength(1);
+    expect(search(router).get("q")).toBe("quarry");
+  });
+
   it("the status and estimator filters and the archived view go into the request", async () => {
     const api = stubApi({
       "GET /api/auth/me": () => json(200, { user: owner }),

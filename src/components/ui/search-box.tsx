@@ -22,6 +22,9 @@ export function SearchBox({ value, onSearch, label, placeholder, delayMs = 300, 
   const lastSent = useRef(value);
   const onSearchRef = useRef(onSearch);
   onSearchRef.current = onSearch;
+  // The pending pause-in-typing report; Enter or clear sends at once and cancels it, so it can't fire
+  // later and navigate again (e.g. after the person has already clicked away to another page).
+  const pending = useRef<ReturnType<typeof setTimeout> | undefined>(undefined);
 
   useEffect(() => {
     if (value !== lastSent.current) {
@@ -32,14 +35,17 @@ export function SearchBox({ value, onSearch, label, placeholder, delayMs = 300, 
 
   useEffect(() => {
     if (text.trim() === lastSent.current.trim()) return;
-    const t = setTimeout(() => {
+    pending.current = setTimeout(() => {
+      pending.current = undefined;
       lastSent.current = text.trim();
       onSearchRef.current(text.trim());
     }, delayMs);
-    return () => clearTimeout(t);
+    return () => clearTimeout(pending.current);
   }, [text, delayMs]);
 
   const sendNow = (q: string) => {
+    clearTimeout(pending.current);
+    pending.current = undefined;
     lastSent.current = q.trim();
     onSearchRef.current(q.trim());
   };
