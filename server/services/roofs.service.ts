@@ -5,7 +5,7 @@ import { executeBinary, sqlDateTime } from "../db/sql";
 import { conflict, notFound } from "../errors";
 import { presentRoof, presentRoofDocument } from "../presenters/roof.presenter";
 import { parseJsonColumn } from "../presenters/job.presenter";
-import { recordAudit } from "./audit.service";
+import { recordAudit, type AuditEntry } from "./audit.service";
 import { JobsService } from "./jobs.service";
 import { rulesFromItems, ruleSourceItems } from "./price-book-rules";
 import { computeStoredTakeoffOfParsed, takeoffSquares, type StoredTakeoff } from "./roof-takeoff";
@@ -132,47 +132,51 @@ export class RoofsService {
     };
     const head = `{"planes":${parts.planes},"stacks":${parts.stacks},"defaultStackId":${parts.defaultStackId}`;
 
-    let version: number;
+    const squares = takeoffSquares(takeoff);
+    const version = existing ? input.version + 1 : 1;
+    const audit: AuditEntry = {
+      companyId: actor.companyId,
+      actorId: actor.id,
+      entityType: "roof",
+      entityId: jobId,
+      jobId,
+      action: existing ? "saved" : "created",
+      changes: {
+        version: { from: currentVersion, to: version },
+        planes: document.planes.length,
+        stacks: document.stacks.length,
+        squares,
+        ...(input.underlay !== undefined ? { underlay: input.underlay ? "set" : "removed" } : {}),
+      },
+    };
     if (!existing) {
       await Roof.create({ jobId, companyId: actor.companyId, version: 1, document, takeoff }, { transaction });
-      version = 1;
+      // What `job.save()` wrote for the job (its squares and updated time), without a model object.
+      await executeBinary(this.sequelize, transaction, "UPDATE jobs SET squares = ?, updated_at = ? WHERE id = ?", [squares, now, jobId]);
+      await recordAudit(audit, transaction);
     } else {
-      // One plain UPDATE, guarded by the version read above (the job row lock already serialises saves); the
-      // 56 KB of JSON go as binary-protocol values rather than escaped into the SQL text.
-      const written = await executeBinary(
-        this.sequelize,
-        transaction,
-        "UPDATE roofs SET document = ?, takeoff = ?, version = version + 1, updated_at = ? WHERE job_id = ? AND version = ?",
-        [`${head}${parts.underlay}}`, parts.takeoff, now, jobId, input.version],
-      );
-      if (Number(written.affectedRows) !== 1) {
+      // The roof and the job's squares and updated time in one statement, guarded by the version read above (the
+      // job row lock already serialises saves); the 56 KB of JSON go as binary-protocol values rather than
+      // escaped into the SQL text. The audit row is sent with it, without waiting for its answer: the driver
+      // pipelines the two, and when the roof was not written the transaction is rolled back, audit row and all.
+      const [written] = await Promise.all([
+        executeBinary(
+          this.sequelize,
+          transaction,
+          `UPDATE roofs r JOIN jobs j ON j.id = r.job_id
+              SET r.document = ?, r.takeoff = ?, r.version = r.version + 1, r.updated_at = ?, j.squares = ?, j.updated_at = ?
+            WHERE r.job_id = ? AND r.version = ?`,
+          [`${head}${parts.underlay}}`, parts.takeoff, now, squares, now, jobId, input.version],
+        ),
+        recordAudit(audit, transaction),
+      ]);
+      // Changed rows (the driver does not count rows found unchanged): the roof's, whose version always moves,
+      // and the job's unless the same squares were saved within the same second. None: the roof was not written.
+      if (Number(written.affectedRows) < 1) {
         const current = await Roof.findOne({ where: { jobId }, attributes: ["version"], transaction });
         throw stale(current?.version ?? 0);
       }
-      version = input.version + 1;
     }
-
-    const squares = takeoffSquares(takeoff);
-    // What `job.save()` wrote for the job (its squares and updated time), without a model object.
-    await executeBinary(this.sequelize, transaction, "UPDATE jobs SET squares = ?, updated_at = ? WHERE id = ?", [squares, now, jobId]);
-    await recordAudit(
-      {
-        companyId: actor.companyId,
-        actorId: actor.id,
-        entityType: "roof",
-        entityId: jobId,
-        jobId,
-        action: existing ? "saved" : "created",
-        changes: {
-          version: { from: currentVersion, to: version },
-          planes: document.planes.length,
-          stacks: document.stacks.length,
-          squares,
-          ...(input.underlay !== undefined ? { underlay: input.underlay ? "set" : "removed" } : {}),
-        },
-      },
-      transaction,
-    );
     if (job.status === "lead") {
       // Once per job: the status move goes through the jobs service (its own audit row) with the job's model.
       await this.jobs.applyStatus(await this.jobs.get(jobId, actor, transaction), "estimating", "first roof saved", actor, transaction);

@@ -104,6 +104,8 @@ describe("PUT /api/jobs/:id/roof", () => {
     const { agent, token, user } = await signedInAgent({ role: "estimator" });
     const job = await buildJob({ companyId: user.companyId });
     await agent.put(`/api/jobs/${job.id}/roof`).set("X-CSRF-Token", token).send(roofBody(0, { underlay })).expect(200);
+    // the job's last change is set back an hour, so the next save is seen to move it
+    await Job.update({ updatedAt: new Date(Date.now() - 3_600_000) }, { where: { id: job.id }, silent: true });
     const hip = hipRoof(50, 30, 8, { idPrefix: "hip" });
     const second = await agent.put(`/api/jobs/${job.id}/roof`).set("X-CSRF-Token", token).send(roofBody(1, { planes: hip }));
     expect(second.status).toBe(200);
@@ -112,7 +114,13 @@ describe("PUT /api/jobs/:id/roof", () => {
     expect(second.body.data.planes).toHaveLength(4);
     // 50 × 30 hip at 8/12: 1500 ft² × √(8² + 12²)/12 = 1802.78 ft² (rafter-table slope factor).
     expect(second.body.data.takeoff.totals.squares).toBeCloseTo((1500 * Math.hypot(8, 12)) / 12 / 100, 6);
-    expect(Number((await Job.findByPk(job.id))!.squares)).toBeCloseTo(18.03, 2);
+    const afterSecond = (await Job.findByPk(job.id))!;
+    expect(Number(afterSecond.squares)).toBeCloseTo(18.03, 2);
+    expect(Date.now() - afterSecond.updatedAt.getTime()).toBeLessThan(60_000);
+    const saved = await AuditEvent.findAll({ where: { jobId: job.id, entityType: "roof", action: "saved" } });
+    expect(saved.map((e) => e.changes)).toEqual([
+      { version: { from: 1, to: 2 }, planes: 4, stacks: 2, squares: 18.03 },
+    ]);
     const third = await agent.put(`/api/jobs/${job.id}/roof`).set("X-CSRF-Token", token).send(roofBody(2, { underlay: null }));
     expect(third.body.data.version).toBe(3);
     expect(third.body.data).not.toHaveProperty("underlay");
