@@ -208,6 +208,26 @@ function toRuleSourceItem(r: RuleSourceRow): RuleSourceItem {
  * The active mapped items as rule sources, read with one plain query: every roof save and every preview
  * takeoff reads them, so only the columns the rules use are read and no model objects are built.
  */
+/** The last few price books' rules by their items' content (a company edits its price book rarely). */
+const rulesMemo = new Map<string, Record<string, unknown>>();
+const RULES_MEMO_MAX = 64;
+
+/**
+ * `rulesFromItems(items).rules`, kept by the items' content, for the roof save (every save reads the items; the
+ * rules only change when they do). Any change to an item gives another key, so nothing needs clearing. The
+ * answer is shared between saves: read it, never change it.
+ */
+export function rulesOfItems(items: RuleSourceItem[]): Record<string, unknown> {
+  const key = JSON.stringify(items);
+  let rules = rulesMemo.get(key);
+  if (!rules) {
+    if (rulesMemo.size >= RULES_MEMO_MAX) rulesMemo.clear();
+    rules = rulesFromItems(items).rules;
+    rulesMemo.set(key, rules);
+  }
+  return rules;
+}
+
 const RULE_SOURCE_ITEMS_SQL = `SELECT id, sku, material_key AS materialKey, purchase_unit AS purchaseUnit, coverage_unit AS coverageUnit,
             pack_coverage AS packCoverage, waste_pct AS wastePct, attributes
        FROM catalog_items

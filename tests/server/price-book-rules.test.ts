@@ -8,6 +8,7 @@ import {
   pricingPackCoverage,
   rulesForCompany,
   rulesFromItems,
+  rulesOfItems,
   type RuleSourceItem,
 } from "../../server/services/price-book-rules";
 import { PriceBookService } from "../../server/services/price-book.service";
@@ -90,6 +91,23 @@ describe("rulesFromItems (pure)", () => {
     expect(conflicts).toEqual([
       { field: "waste.underlaymentPct", used: { key: "underlayment-synthetic", sku: "SYN", value: 10 }, ignored: [{ key: "underlayment-felt-30", sku: "F30", value: 15 }] },
     ]);
+  });
+
+  it("rulesOfItems gives rulesFromItems' rules, and the new ones as soon as an item changes", () => {
+    const items = [
+      source({ id: 1, materialKey: "underlayment-synthetic", wastePct: 12, attributes: { rollWidthIn: 54, rollLengthFt: 200 } }),
+      source({ id: 2, materialKey: "batten-1x4", purchaseUnit: "pc", coverageUnit: "lf", packCoverage: 12, wastePct: 8 }),
+    ];
+    const first = rulesOfItems(items);
+    expect(first).toEqual(rulesFromItems(items).rules);
+    expect(rulesOfItems(structuredClone(items))).toBe(first); // the same items (read again): the rules kept
+    const edited = [items[0]!, { ...items[1]!, packCoverage: 16 }];
+    const second = rulesOfItems(edited);
+    expect(second).toEqual(rulesFromItems(edited).rules);
+    expect(second).not.toEqual(first);
+    const inactive = [items[0]!]; // an item made inactive is no longer read
+    expect(rulesOfItems(inactive)).toEqual(rulesFromItems(inactive).rules);
+    expect(rulesOfItems(inactive)).not.toEqual(first);
   });
 
   it("ignores unmapped items and unknown keys", () => {
