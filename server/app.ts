@@ -1,3 +1,4 @@
+import { configureEnginePool } from "./services/engine-pool";
 import express, { type Express } from "express";
 import session, { type Store } from "express-session";
 import helmet from "helmet";
@@ -60,6 +61,7 @@ export function createApp(deps: AppDeps): Express {
     services: { users: new UsersService(deps.sequelize, config.bcryptRounds) },
   };
 
+  configureEnginePool(config.engineWorkers);
   const app = express();
   app.disable("x-powered-by");
   // API answers are private and never reused (no-store below), so hashing every JSON body for an ETag is

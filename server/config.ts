@@ -18,6 +18,8 @@ const envSchema = z.object({
   DB_USER: z.string().default("app"),
   DB_PASSWORD: z.string().default(""),
   DB_POOL_MAX: z.coerce.number().int().min(1).max(200).default(10),
+  /** Worker threads that compute the stored takeoff of each roof save; 0 = on the event loop. */
+  ENGINE_WORKERS: z.coerce.number().int().min(0).max(16).default(1),
   SESSION_SECRET: z.string().min(16).optional(),
   SESSION_MAX_AGE_HOURS: z.coerce.number().positive().default(12),
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(10),
@@ -67,6 +69,8 @@ export interface Config {
   port: number;
   host: string;
   db: { host: string; port: number; database: string; user: string; password: string; poolMax: number };
+  /** Worker threads for the engine's takeoff of a roof save (see services/engine-pool.ts); 0 = the event loop. */
+  engineWorkers: number;
   sessionSecret: string;
   sessionMaxAgeMs: number;
   bcryptRounds: number;
@@ -124,6 +128,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): Config {
     port: e.PORT,
     host: e.HOST,
     db: { ...db, poolMax: e.DB_POOL_MAX },
+    engineWorkers: e.ENGINE_WORKERS,
     sessionSecret: e.SESSION_SECRET ?? "ridgewright-development-session-secret",
     sessionMaxAgeMs: e.SESSION_MAX_AGE_HOURS * 3_600_000,
     bcryptRounds: e.BCRYPT_ROUNDS,

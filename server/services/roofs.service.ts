@@ -3,12 +3,13 @@ import type { RoofDocument, RoofDto, RoofSave } from "../../shared/schemas/roof"
 import { Roof } from "../models/index";
 import { executeBinary, sqlDateTime } from "../db/sql";
 import { conflict, notFound } from "../errors";
-import { presentRoof, presentRoofDocument } from "../presenters/roof.presenter";
+import { presentRoof } from "../presenters/roof.presenter";
 import { parseJsonColumn } from "../presenters/job.presenter";
 import { recordAudit, type AuditEntry } from "./audit.service";
 import { JobsService } from "./jobs.service";
-import { rulesFromItems, ruleSourceItems } from "./price-book-rules";
-import { computeStoredTakeoffOfParsed, takeoffSquares, type StoredTakeoff } from "./roof-takeoff";
+import { rulesOfItems, ruleSourceItems } from "./price-book-rules";
+import { enginePool } from "./engine-pool";
+import type { StoredTakeoff } from "./roof-takeoff";
 
 type Actor = Express.User;
 
@@ -58,15 +59,15 @@ export class RoofsService {
    * becomes estimating with its first roof. One transaction, with the audit rows.
    */
   async save(jobId: number, input: RoofSave, actor: Actor): Promise<SavedRoof> {
-    return (await this.saveWithJson(jobId, input, actor)).saved;
+    return JSON.parse((await this.saveWithJson(jobId, input, actor)).json) as SavedRoof;
   }
 
   /**
-   * `save`, with the answer's JSON text as well (what `JSON.stringify` gives for `saved`), built from the
-   * parts serialised once for the stored document and takeoff: PUT /api/jobs/:id/roof sends it as it is
+   * `save`, answering the saved roof as JSON text (what `JSON.stringify` gives for `save`'s answer), built from
+   * the parts serialised once for the stored document and takeoff: PUT /api/jobs/:id/roof sends it as it is
    * instead of serialising 50 KB a second time.
    */
-  async saveWithJson(jobId: number, input: RoofSave, actor: Actor): Promise<{ saved: SavedRoof; json: string }> {
+  async saveWithJson(jobId: number, input: RoofSave, actor: Actor): Promise<{ json: string }> {
     try {
       return await this.sequelize.transaction((t) => this.saveIn(jobId, input, actor, t));
     } catch (err) {
@@ -79,7 +80,7 @@ export class RoofsService {
     }
   }
 
-  private async saveIn(jobId: number, input: RoofSave, actor: Actor, transaction: Transaction): Promise<{ saved: SavedRoof; json: string }> {
+  private async saveIn(jobId: number, input: RoofSave, actor: Actor, transaction: Transaction): Promise<{ json: string }> {
     const keepUnderlay = input.underlay === undefined;
     const crew = actor.role === "crew";
     // The job row, locked (saves of one roof and site edits run one after another), with what the save needs of
@@ -118,8 +119,9 @@ export class RoofsService {
       ...(underlay ? { underlay } : {}),
     };
     // The planes and stacks were parsed and cross-checked by roofSaveSchema: the engine takes them as they are.
-    const rules = rulesFromItems(ruleItems).rules;
-    const takeoff = computeStoredTakeoffOfParsed(document, parseJsonColumn(job.site), rules);
+    const rules = rulesOfItems(ruleItems);
+    // In a worker thread: the event loop serves other requests meanwhile (the job row stays locked).
+    const takeoff = await enginePool().storedTakeoff(document, parseJsonColumn(job.site), rules);
     const now = sqlDateTime(new Date());
     // Each part serialised once: the stored document is `JSON.stringify(document)` and the answer
     // `JSON.stringify({ ...presentRoofDocument(document, version), takeoff })`, both put together from these.
@@ -128,11 +130,11 @@ export class RoofsService {
       stacks: JSON.stringify(document.stacks),
       defaultStackId: JSON.stringify(document.defaultStackId),
       underlay: document.underlay ? `,"underlay":${JSON.stringify(document.underlay)}` : "",
-      takeoff: JSON.stringify(takeoff),
+      takeoff: takeoff.json,
     };
     const head = `{"planes":${parts.planes},"stacks":${parts.stacks},"defaultStackId":${parts.defaultStackId}`;
 
-    const squares = takeoffSquares(takeoff);
+    const squares = takeoff.squares;
     const version = existing ? input.version + 1 : 1;
     const audit: AuditEntry = {
       companyId: actor.companyId,
@@ -150,7 +152,7 @@ export class RoofsService {
       },
     };
     if (!existing) {
-      await Roof.create({ jobId, companyId: actor.companyId, version: 1, document, takeoff }, { transaction });
+      await Roof.create({ jobId, companyId: actor.companyId, version: 1, document, takeoff: JSON.parse(takeoff.json) as StoredTakeoff }, { transaction });
       // What `job.save()` wrote for the job (its squares and updated time), without a model object.
       await executeBinary(this.sequelize, transaction, "UPDATE jobs SET squares = ?, updated_at = ? WHERE id = ?", [squares, now, jobId]);
       await recordAudit(audit, transaction);
@@ -183,7 +185,6 @@ export class RoofsService {
     }
 
     return {
-      saved: { ...presentRoofDocument(document, version), takeoff },
       json: `${head},"version":${version}${parts.underlay},"takeoff":${parts.takeoff}}`,
     };
   }
