@@ -118,9 +118,10 @@ export class RoofsService {
       defaultStackId: input.defaultStackId,
       ...(underlay ? { underlay } : {}),
     };
-    // The planes and stacks were parsed and cross-checked by roofSaveSchema: the engine takes them as they are.
+    // The planes and stacks were parsed and cross-checked by roofSaveSchema: the engine takes them as they are, in
+    // a worker thread (the event loop serves other requests meanwhile; the job row stays locked). Each plane's
+    // geometry is worked out again there: what the schema's checks kept does not travel with the copy.
     const rules = rulesOfItems(ruleItems);
-    // In a worker thread: the event loop serves other requests meanwhile (the job row stays locked).
     const takeoff = await enginePool().storedTakeoff(document, parseJsonColumn(job.site), rules);
     const now = sqlDateTime(new Date());
     // Each part serialised once: the stored document is `JSON.stringify(document)` and the answer
