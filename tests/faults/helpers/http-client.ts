@@ -5,6 +5,12 @@ export interface Answer<T = any> {
   ms: number;
 }
 
+/** fetch's error when the server closed the (reused, idle) connection before answering. */
+function staleConnection(err: unknown): boolean {
+  const cause = (err as { cause?: { code?: string; message?: string } })?.cause;
+  return cause?.code === "UND_ERR_SOCKET" && /other side closed/.test(cause.message ?? "");
+}
+
 export class Client {
   private cookie = "";
   private token = "";
@@ -17,12 +23,22 @@ export class Client {
     if (this.cookie) headers.cookie = this.cookie;
     if (method !== "GET") headers["x-csrf-token"] = this.token;
     if (body !== undefined) headers["content-type"] = "application/json";
-    const res = await fetch(this.baseUrl + path, {
-      method,
-      headers,
-      body: body === undefined ? undefined : JSON.stringify(body),
-      signal: AbortSignal.timeout(timeoutMs),
-    });
+    const send = () =>
+      fetch(this.baseUrl + path, {
+        method,
+        headers,
+        body: body === undefined ? undefined : JSON.stringify(body),
+        signal: AbortSignal.timeout(timeoutMs),
+      });
+    let res: Response;
+    try {
+      res = await send();
+    } catch (err) {
+      // A kept-alive connection the server closed for idleness (after 5 s) just as this request went out on it:
+      // as a browser does, an idempotent request is sent once more on a new connection. Anything else fails.
+      if (!(method === "GET" && staleConnection(err))) throw err;
+      res = await send();
+    }
     const set = res.headers.getSetCookie();
     if (set.length) this.cookie = set.map((c) => c.split(";")[0]).join("; ");
     const text = await res.text();
