@@ -204,10 +204,6 @@ function toRuleSourceItem(r: RuleSourceRow): RuleSourceItem {
   };
 }
 
-/**
- * The active mapped items as rule sources, read with one plain query: every roof save and every preview
- * takeoff reads them, so only the columns the rules use are read and no model objects are built.
- */
 /** The last few price books' rules by their items' content (a company edits its price book rarely). */
 const rulesMemo = new Map<string, Record<string, unknown>>();
 const RULES_MEMO_MAX = 64;
@@ -228,6 +224,10 @@ export function rulesOfItems(items: RuleSourceItem[]): Record<string, unknown> {
   return rules;
 }
 
+/**
+ * The active mapped items as rule sources, read with one plain query: every roof save and every preview
+ * takeoff reads them, so only the columns the rules use are read and no model objects are built.
+ */
 const RULE_SOURCE_ITEMS_SQL = `SELECT id, sku, material_key AS materialKey, purchase_unit AS purchaseUnit, coverage_unit AS coverageUnit,
             pack_coverage AS packCoverage, waste_pct AS wastePct, attributes
        FROM catalog_items
