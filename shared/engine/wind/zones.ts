@@ -29,6 +29,7 @@ export const HIP_ZONE3_MAX_PITCH = 12 * Math.tan((25 * Math.PI) / 180);
 /** Above 45° (12/12) the figures do not apply. */
 export const WIND_FIGURES_MAX_PITCH = 12;
 
+/** Edge types that bound the roof for the wind zones (isRoofEdgeType below tests the same four). */
 export const ROOF_EDGE_TYPES = new Set(["eave", "rake", "ridge", "hip"]);
 
 export interface EdgeDistance {
@@ -78,31 +79,11 @@ export function leastDimensionOfOutlines(outlines: readonly (readonly Pt[])[]): 
  */
 export function withinDistanceInterval(p0: Pt, d: Pt, a: Pt, b: Pt, r: number): [number, number] | null {
   const out = INTERVAL_SCRATCH;
-  const v = prepare({ edges: [{ a, b, dir: [0, 0] }], corners: [] }, d[0], d[1]);
-  return intervalPrepared(p0[0], p0[1], d[0], d[1], v, 0, r, out, 0) ? [out[0], out[1]] : null;
+  prepareEdge(ONE_EDGE, 0, a[0], a[1], b[0], b[1], d[0], d[1]);
+  return intervalPrepared(p0[0], p0[1], d[0], d[1], ONE_EDGE, 0, r, out, 0) ? [out[0], out[1]] : null;
 }
 
 const INTERVAL_SCRATCH = new Float64Array(2);
-
-/** Slab clip of t for q0 + t·dq within [min, max], narrowing [lo, hi] held in out[i], out[i+1]. */
-function clipSlab(q0: number, dq: number, min: number, max: number, out: Float64Array, i: number): void {
-  if (Math.abs(dq) < 1e-15) {
-    if (q0 < min || q0 > max) {
-      out[i] = Infinity;
-      out[i + 1] = -Infinity;
-    }
-    return;
-  }
-  let ta = (min - q0) / dq;
-  let tb = (max - q0) / dq;
-  if (ta > tb) {
-    const x = ta;
-    ta = tb;
-    tb = x;
-  }
-  if (ta > out[i]) out[i] = ta;
-  if (tb < out[i + 1]) out[i + 1] = tb;
-}
 
 export interface ZoneModel {
   kind: "steep" | "low-slope";
@@ -121,8 +102,10 @@ interface RoofEdge {
 
 /**
  * A plane's roof edges as seen from a family of parallel lines (direction dx, dy), worked out once for all
- * the lines of a plane. Per edge, PREP numbers: a, b, the unit vector u along the edge, its length L, the
- * line direction's components along and across u, and the edge's extent across the lines.
+ * the lines of a plane. Per edge, PREP numbers: a (0, 1), b (2, 3), the unit vector u along the edge (4, 5;
+ * zero for a zero-length edge), its length L (6), the line direction's components along and across u
+ * (7, 8), and the edge's extent across the lines (9, 10: min and max of the cross product p × d over its
+ * two ends).
  */
 const PREP = 11;
 interface RoofEdges {
@@ -131,32 +114,45 @@ interface RoofEdges {
   prepared?: { dx: number; dy: number; v: Float64Array };
 }
 
+/** Scratch for withinDistanceInterval's single edge. */
+const ONE_EDGE = new Float64Array(PREP);
+
+/** Writes one edge's PREP numbers at offset o of v (see PREP). */
+function prepareEdge(v: Float64Array, o: number, ax: number, ay: number, bx: number, by: number, dx: number, dy: number): void {
+  v[o] = ax;
+  v[o + 1] = ay;
+  v[o + 2] = bx;
+  v[o + 3] = by;
+  const L = Math.sqrt((bx - ax) * (bx - ax) + (by - ay) * (by - ay));
+  v[o + 6] = L;
+  if (L > 0) {
+    const ux = (bx - ax) / L;
+    const uy = (by - ay) / L;
+    v[o + 4] = ux;
+    v[o + 5] = uy;
+    v[o + 7] = dx * ux + dy * uy;
+    v[o + 8] = -dx * uy + dy * ux;
+  } else {
+    v[o + 4] = 0;
+    v[o + 5] = 0;
+    v[o + 7] = 0;
+    v[o + 8] = 0;
+  }
+  const pa = ax * dy - ay * dx;
+  const pb = bx * dy - by * dx;
+  v[o + 9] = Math.min(pa, pb);
+  v[o + 10] = Math.max(pa, pb);
+}
+
 function prepare(roof: RoofEdges, dx: number, dy: number): Float64Array {
   const p = roof.prepared;
   if (p && p.dx === dx && p.dy === dy) return p.v;
-  const v = new Float64Array(roof.edges.length * PREP);
-  roof.edges.forEach((ed, e) => {
-    const o = e * PREP;
-    const ax = ed.a[0], ay = ed.a[1], bx = ed.b[0], by = ed.b[1];
-    v[o] = ax;
-    v[o + 1] = ay;
-    v[o + 2] = bx;
-    v[o + 3] = by;
-    const L = Math.sqrt((bx - ax) * (bx - ax) + (by - ay) * (by - ay));
-    v[o + 6] = L;
-    if (L > 0) {
-      const ux = (bx - ax) / L;
-      const uy = (by - ay) / L;
-      v[o + 4] = ux;
-      v[o + 5] = uy;
-      v[o + 7] = dx * ux + dy * uy;
-      v[o + 8] = -dx * uy + dy * ux;
-    }
-    const pa = ax * dy - ay * dx;
-    const pb = bx * dy - by * dx;
-    v[o + 9] = Math.min(pa, pb);
-    v[o + 10] = Math.max(pa, pb);
-  });
+  const edges = roof.edges;
+  const v = new Float64Array(edges.length * PREP);
+  for (let e = 0; e < edges.length; e++) {
+    const ed = edges[e];
+    prepareEdge(v, e * PREP, ed.a[0], ed.a[1], ed.b[0], ed.b[1], dx, dy);
+  }
   roof.prepared = { dx, dy, v };
   return v;
 }
@@ -164,37 +160,81 @@ function prepare(roof: RoofEdges, dx: number, dy: number): Float64Array {
 /**
  * Interval of t along the line p + t·d within distance r of a prepared edge (offset o in v), written into
  * out[i], out[i+1]; returns whether it is non-empty. Allocation-free: the union of the line's intervals in
- * the two end disks and the middle rectangle (u along the edge in [0, L], across it in [−r, r]).
+ * the two end disks and the middle rectangle (u along the edge in [0, L], across it in [−r, r]). The
+ * rectangle is a slab clip: t where u0 + t·du stays in [0, L] and w0 + t·dw in [−r, r] (a line parallel to
+ * a slab, |du| or |dw| < 1e-15, is inside it entirely or not at all).
  */
 function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
   let lo = Infinity;
   let hi = -Infinity;
-  for (let e = 0; e < 2; e++) {
-    const fx = px - v[o + 2 * e];
-    const fy = py - v[o + 2 * e + 1];
-    const B = dx * fx + dy * fy;
-    const disc = B * B - (fx * fx + fy * fy - r * r);
-    if (disc >= 0) {
-      const sq = Math.sqrt(disc);
-      if (-B - sq < lo) lo = -B - sq;
-      if (-B + sq > hi) hi = -B + sq;
-    }
+  // End disks: |p + t·d − end|² = r², a quadratic in t with half-coefficient B (d is a unit vector).
+  const ax = v[o];
+  const ay = v[o + 1];
+  let fx = px - ax;
+  let fy = py - ay;
+  let B = dx * fx + dy * fy;
+  let disc = B * B - (fx * fx + fy * fy - r * r);
+  if (disc >= 0) {
+    const sq = Math.sqrt(disc);
+    lo = -B - sq;
+    hi = -B + sq;
+  }
+  fx = px - v[o + 2];
+  fy = py - v[o + 3];
+  B = dx * fx + dy * fy;
+  disc = B * B - (fx * fx + fy * fy - r * r);
+  if (disc >= 0) {
+    const sq = Math.sqrt(disc);
+    if (-B - sq < lo) lo = -B - sq;
+    if (-B + sq > hi) hi = -B + sq;
   }
   const L = v[o + 6];
   if (L > 0) {
-    const ax = v[o];
-    const ay = v[o + 1];
     const ux = v[o + 4];
     const uy = v[o + 5];
     const u0 = (px - ax) * ux + (py - ay) * uy;
     const w0 = -(px - ax) * uy + (py - ay) * ux;
-    out[i] = -Infinity;
-    out[i + 1] = Infinity;
-    clipSlab(u0, v[o + 7], 0, L, out, i);
-    clipSlab(w0, v[o + 8], -r, r, out, i);
-    if (out[i] <= out[i + 1]) {
-      if (out[i] < lo) lo = out[i];
-      if (out[i + 1] > hi) hi = out[i + 1];
+    let s0 = -Infinity;
+    let s1 = Infinity;
+    // Slab 0 ≤ u ≤ L along the edge.
+    const du = v[o + 7];
+    if (Math.abs(du) < 1e-15) {
+      if (u0 < 0 || u0 > L) {
+        s0 = Infinity;
+        s1 = -Infinity;
+      }
+    } else {
+      let ta = (0 - u0) / du;
+      let tb = (L - u0) / du;
+      if (ta > tb) {
+        const x = ta;
+        ta = tb;
+        tb = x;
+      }
+      if (ta > s0) s0 = ta;
+      if (tb < s1) s1 = tb;
+    }
+    // Slab −r ≤ w ≤ r across it.
+    const dw = v[o + 8];
+    if (Math.abs(dw) < 1e-15) {
+      if (w0 < -r || w0 > r) {
+        s0 = Infinity;
+        s1 = -Infinity;
+      }
+    } else {
+      let ta = (-r - w0) / dw;
+      let tb = (r - w0) / dw;
+      if (ta > tb) {
+        const x = ta;
+        ta = tb;
+        tb = x;
+      }
+      if (ta > s0) s0 = ta;
+      if (tb < s1) s1 = tb;
+    }
+    if (s0 <= s1) {
+      if (s0 < lo) lo = s0;
+      if (s1 > hi) hi = s1;
     }
   }
   out[i] = lo;
@@ -205,11 +245,17 @@ function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Flo
 /** Two ends within 0.01 ft of each other meet. */
 const near = (p: Pt, q: Pt) => (p[0] - q[0]) * (p[0] - q[0]) + (p[1] - q[1]) * (p[1] - q[1]) <= 0.01 * 0.01;
 
+/** Same as near() on raw coordinates. */
+const nearXY = (px: number, py: number, qx: number, qy: number) => (px - qx) * (px - qx) + (py - qy) * (py - qy) <= 0.01 * 0.01;
+
+/** Whether an edge type is one of ROOF_EDGE_TYPES, by plain comparisons (no Set lookup on the per-plane path). */
+const isRoofEdgeType = (t: string) => t === "eave" || t === "rake" || t === "ridge" || t === "hip";
+
 /** The roof edges of a plane and its corner pairs (two roof edges meeting at a corner, not in line). */
 export function planeRoofEdges(pieces: EdgePiece[]): RoofEdges {
   const edges: RoofEdge[] = [];
   for (const pc of pieces) {
-    if (!ROOF_EDGE_TYPES.has(pc.type)) continue;
+    if (!isRoofEdgeType(pc.type)) continue;
     const dx = pc.to[0] - pc.from[0];
     const dy = pc.to[1] - pc.from[1];
     const l = Math.sqrt(dx * dx + dy * dy) || 1;
@@ -226,6 +272,66 @@ export function planeRoofEdges(pieces: EdgePiece[]): RoofEdges {
       corners.push([i, j]);
     }
   return { edges, corners };
+}
+
+/**
+ * The roof edges of one plane in flat form for the segment core: `ne` edges prepared for one line
+ * direction (PREP numbers each) and `nq` corners as pairs of edge indices.
+ */
+interface FlatRoof {
+  prep: Float64Array;
+  ne: number;
+  corners: Int32Array;
+  nq: number;
+}
+
+// Reused across calls (the engine is synchronous and single-threaded): the plane planeFasteners is on,
+// and the roof zoneSegmentsAlong was given.
+const PLANE_ROOF: FlatRoof = { prep: new Float64Array(8 * PREP), ne: 0, corners: new Int32Array(16), nq: 0 };
+const ALONG_ROOF: FlatRoof = { prep: new Float64Array(0), ne: 0, corners: new Int32Array(16), nq: 0 };
+
+/**
+ * planeRoofEdges and prepare in one pass with no object per edge: the same edges (roof edge types, in
+ * piece order) and corners (same tests, same order) written into PLANE_ROOF, prepared for direction
+ * (dx, dy). The edge's unit vector u (PREP 4, 5) is planeRoofEdges' `dir`: both are (b − a) / |b − a|, and
+ * zero for a zero-length edge, which then never makes a corner.
+ */
+function planeRoofInto(pieces: EdgePiece[], dx: number, dy: number): FlatRoof {
+  const roof = PLANE_ROOF;
+  let ne = 0;
+  for (let i = 0; i < pieces.length; i++) if (isRoofEdgeType(pieces[i].type)) ne++;
+  if (roof.prep.length < ne * PREP) roof.prep = new Float64Array(ne * 2 * PREP);
+  const v = roof.prep;
+  let e = 0;
+  for (let i = 0; i < pieces.length; i++) {
+    const pc = pieces[i];
+    if (!isRoofEdgeType(pc.type)) continue;
+    prepareEdge(v, e * PREP, pc.from[0], pc.from[1], pc.to[0], pc.to[1], dx, dy);
+    e++;
+  }
+  let nq = 0;
+  for (let i = 0; i < ne; i++) {
+    const oi = i * PREP;
+    const eax = v[oi], eay = v[oi + 1], ebx = v[oi + 2], eby = v[oi + 3];
+    for (let j = i + 1; j < ne; j++) {
+      const oj = j * PREP;
+      const fax = v[oj], fay = v[oj + 1], fbx = v[oj + 2], fby = v[oj + 3];
+      const meet = nearXY(eax, eay, fax, fay) || nearXY(eax, eay, fbx, fby) || nearXY(ebx, eby, fax, fay) || nearXY(ebx, eby, fbx, fby);
+      if (!meet) continue;
+      if (Math.abs(v[oi + 4] * v[oj + 5] - v[oi + 5] * v[oj + 4]) <= 1e-3) continue; // in line: not a corner
+      if (roof.corners.length < 2 * nq + 2) {
+        const c = new Int32Array(roof.corners.length * 2);
+        c.set(roof.corners);
+        roof.corners = c;
+      }
+      roof.corners[2 * nq] = i;
+      roof.corners[2 * nq + 1] = j;
+      nq++;
+    }
+  }
+  roof.ne = ne;
+  roof.nq = nq;
+  return roof;
 }
 
 export interface ZoneSegment {
@@ -245,7 +351,17 @@ export function zoneSegmentsAlong(
   roof: RoofEdges,
   model: ZoneModel,
 ): ZoneSegment[] {
-  const n = segmentInto(p0[0], p0[1], d, len, roof, model);
+  const flat = ALONG_ROOF;
+  flat.prep = prepare(roof, d[0], d[1]);
+  flat.ne = roof.edges.length;
+  flat.nq = roof.corners.length;
+  if (flat.corners.length < 2 * flat.nq) flat.corners = new Int32Array(4 * flat.nq);
+  for (let q = 0; q < flat.nq; q++) {
+    flat.corners[2 * q] = roof.corners[q][0];
+    flat.corners[2 * q + 1] = roof.corners[q][1];
+  }
+  ensureScratch(flat);
+  const n = segmentInto(p0[0], p0[1], d[0], d[1], len, flat, model);
   const out: ZoneSegment[] = [];
   for (let i = 0; i < n; i++) out.push({ zone: ZONE_BY_CODE[SEG_ZONE[i]], planFt: SEG_LEN[i] });
   return out;
@@ -259,32 +375,152 @@ let SEG_ZONE = new Int8Array(64);
 let SEG_LEN = new Float64Array(64);
 let ACTIVE_CORNERS = new Int32Array(16);
 
+/** Sorts cuts[0..n) ascending in place: insertion sort, as a line has only a handful of cuts. */
+function sortCuts(cuts: Float64Array, n: number): void {
+  for (let i = 1; i < n; i++) {
+    const x = cuts[i];
+    let j = i - 1;
+    while (j >= 0 && cuts[j] > x) {
+      cuts[j + 1] = cuts[j];
+      j--;
+    }
+    cuts[j + 1] = x;
+  }
+}
+
 /**
- * Allocation-free core of zoneSegmentsAlong: writes merged segments into SEG_ZONE / SEG_LEN and returns
- * how many there are.
+ * Appends one classified piece to segZone / segLen (SEG_ZONE / SEG_LEN, ns pieces so far), merging it into
+ * the previous piece when that has the same zone; returns the new count.
  */
-function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges, model: ZoneModel): number {
-  if (!(len > 0)) return 0;
-  const steep = model.kind === "steep";
-  const r2 = steep ? model.aFt : 0.6 * model.h!;
-  const r3 = steep ? model.aFt : 0.2 * model.h!;
-  const r1 = steep ? 0 : 1.2 * model.h!;
-  const ne = roof.edges.length;
+function pushSegment(segZone: Int8Array, segLen: Float64Array, ns: number, zone: number, seg: number): number {
+  if (ns > 0 && segZone[ns - 1] === zone) {
+    segLen[ns - 1] += seg;
+    return ns;
+  }
+  segZone[ns] = zone;
+  segLen[ns] = seg;
+  return ns + 1;
+}
+
+/** Grows the scratch buffers for a roof (once per roof, so the per-line code need not check). */
+function ensureScratch(roof: FlatRoof): void {
+  const ne = roof.ne;
   if (IV.length < ne * 6) IV = new Float64Array(ne * 12);
   if (CUTS.length < ne * 6 + 2) {
     CUTS = new Float64Array(ne * 12 + 4);
     SEG_ZONE = new Int8Array(ne * 12 + 4);
     SEG_LEN = new Float64Array(ne * 12 + 4);
   }
+  if (ACTIVE_CORNERS.length < roof.nq * 2) ACTIVE_CORNERS = new Int32Array(roof.nq * 4);
+}
+
+/**
+ * Allocation-free core of zoneSegmentsAlong for the line p + t·d, 0 ≤ t ≤ len: writes merged segments
+ * into SEG_ZONE / SEG_LEN (zone codes 0..3 for 1', 1, 2, 3) and returns how many there are. The scratch
+ * must have been grown for this roof (ensureScratch).
+ */
+function segmentInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, model: ZoneModel): number {
+  if (!(len > 0)) return 0;
+  return model.kind === "steep"
+    ? steepSegmentsInto(px, py, dx, dy, len, roof, model.aFt, model.zone3AsZone2)
+    : lowSlopeSegmentsInto(px, py, dx, dy, len, roof, model.h!, model.zone3AsZone2);
+}
+
+/**
+ * Steep roofs: one width a for zones 2 and 3, so one interval per edge (IV[2e], IV[2e+1]; empty as
+ * +∞, −∞): zone 3 where the intervals of a corner's two edges overlap, zone 2 where any interval is,
+ * zone 1 elsewhere. Zone 3 lies inside zone 2, so the corners are looked at only where zone 2 is, and not
+ * at all when zone 3 counts as zone 2.
+ */
+function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, a: number, zone3AsZone2: boolean): number {
+  const prep = roof.prep;
+  const ne = roof.ne;
   const iv = IV;
+  const cuts = CUTS;
+  const active = ACTIVE_CORNERS;
+  const segZone = SEG_ZONE;
+  const segLen = SEG_LEN;
   let nc = 0;
-  CUTS[nc++] = 0;
-  CUTS[nc++] = len;
-  const dx = d[0];
-  const dy = d[1];
+  cuts[nc++] = 0;
+  cuts[nc++] = len;
+  const rMax = Math.max(0, a);
+  const across = px * dy - py * dx; // the line's position across its direction
+  for (let e = 0; e < ne; e++) {
+    const o = e * 2;
+    const po = e * PREP;
+    if (
+      across < prep[po + 9] - rMax ||
+      across > prep[po + 10] + rMax || // farther than the zone width from this edge, measured across the line
+      !(a > 0) ||
+      !intervalPrepared(px, py, dx, dy, prep, po, a, iv, o)
+    ) {
+      iv[o] = Infinity;
+      iv[o + 1] = -Infinity;
+      continue;
+    }
+    if (iv[o] > 0 && iv[o] < len) cuts[nc++] = iv[o];
+    if (iv[o + 1] > 0 && iv[o + 1] < len) cuts[nc++] = iv[o + 1];
+  }
+  sortCuts(cuts, nc);
+  // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
+  let na = 0;
+  if (!zone3AsZone2) {
+    const corners = roof.corners;
+    for (let q = 0; q < roof.nq; q++) {
+      const i = corners[2 * q] * 2;
+      const j = corners[2 * q + 1] * 2;
+      if (iv[i] <= iv[i + 1] && iv[j] <= iv[j + 1]) {
+        active[na++] = i;
+        active[na++] = j;
+      }
+    }
+  }
+  let ns = 0;
+  for (let c = 0; c + 1 < nc; c++) {
+    const seg = cuts[c + 1] - cuts[c];
+    if (seg <= 1e-9) continue;
+    const t = (cuts[c] + cuts[c + 1]) / 2;
+    let zone = 1;
+    for (let o = 0; o < 2 * ne; o += 2)
+      if (iv[o] <= t && t <= iv[o + 1]) {
+        zone = 2;
+        break;
+      }
+    if (zone === 2)
+      for (let q = 0; q < na; q += 2) {
+        const i = active[q];
+        const j = active[q + 1];
+        if (iv[i] <= t && t <= iv[i + 1] && iv[j] <= t && t <= iv[j + 1]) {
+          zone = 3;
+          break;
+        }
+      }
+    ns = pushSegment(segZone, segLen, ns, zone, seg);
+  }
+  return ns;
+}
+
+/**
+ * Low-slope roofs (widths in h): per edge three intervals at IV[6e..6e+6): I2 (zone 2 band 0.6h),
+ * I3 (zone 3 short side 0.2h), I1 (zone 1 band 1.2h). Zone 3 (or 2 when zone 3 counts as zone 2) where
+ * one edge of a corner has I3 and the other I2; else zone 2 in any I2, zone 1 in any I1, zone 1' elsewhere.
+ */
+function lowSlopeSegmentsInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, h: number, zone3AsZone2: boolean): number {
+  const r2 = 0.6 * h;
+  const r3 = 0.2 * h;
+  const r1 = 1.2 * h;
+  const prep = roof.prep;
+  const ne = roof.ne;
+  const iv = IV;
+  const cuts = CUTS;
+  const active = ACTIVE_CORNERS;
+  const segZone = SEG_ZONE;
+  const segLen = SEG_LEN;
+  let nc = 0;
+  cuts[nc++] = 0;
+  cuts[nc++] = len;
   const rMax = Math.max(r1, r2, r3);
   const across = px * dy - py * dx; // the line's position across its direction
-  const prep = prepare(roof, dx, dy);
   for (let e = 0; e < ne; e++) {
     const o = e * 6;
     const po = e * PREP;
@@ -296,7 +532,6 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
       }
       continue;
     }
-    // I2 (zone 2 width), I3 (zone 3 short side, low-slope only), I1 (zone 1 width, low-slope only).
     for (let k = 0; k < 3; k++) {
       const r = k === 0 ? r2 : k === 1 ? r3 : r1;
       const ok = o + k * 2;
@@ -310,31 +545,20 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
         iv[ok + 1] = -Infinity;
         continue;
       }
-      if (iv[ok] > 0 && iv[ok] < len) CUTS[nc++] = iv[ok];
-      if (iv[ok + 1] > 0 && iv[ok + 1] < len) CUTS[nc++] = iv[ok + 1];
+      if (iv[ok] > 0 && iv[ok] < len) cuts[nc++] = iv[ok];
+      if (iv[ok + 1] > 0 && iv[ok + 1] < len) cuts[nc++] = iv[ok + 1];
     }
   }
-  // Insertion sort in place: a handful of cuts per line.
-  const cuts = CUTS;
-  for (let i = 1; i < nc; i++) {
-    const x = cuts[i];
-    let j = i - 1;
-    while (j >= 0 && cuts[j] > x) {
-      cuts[j + 1] = cuts[j];
-      j--;
-    }
-    cuts[j + 1] = x;
-  }
+  sortCuts(cuts, nc);
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   const corners = roof.corners;
-  if (ACTIVE_CORNERS.length < corners.length * 2) ACTIVE_CORNERS = new Int32Array(corners.length * 4);
   let na = 0;
-  for (let q = 0; q < corners.length; q++) {
-    const i = corners[q][0] * 6;
-    const j = corners[q][1] * 6;
+  for (let q = 0; q < roof.nq; q++) {
+    const i = corners[2 * q] * 6;
+    const j = corners[2 * q + 1] * 6;
     if ((iv[i] <= iv[i + 1] || iv[i + 2] <= iv[i + 3]) && (iv[j] <= iv[j + 1] || iv[j + 2] <= iv[j + 3])) {
-      ACTIVE_CORNERS[na++] = i;
-      ACTIVE_CORNERS[na++] = j;
+      active[na++] = i;
+      active[na++] = j;
     }
   }
   let ns = 0;
@@ -344,8 +568,8 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
     const t = (cuts[c] + cuts[c + 1]) / 2;
     let in3 = false;
     for (let q = 0; q < na && !in3; q += 2) {
-      const i = ACTIVE_CORNERS[q];
-      const j = ACTIVE_CORNERS[q + 1];
+      const i = active[q];
+      const j = active[q + 1];
       const i2 = iv[i] <= t && t <= iv[i + 1];
       const i3 = iv[i + 2] <= t && t <= iv[i + 3];
       const j2 = iv[j] <= t && t <= iv[j + 1];
@@ -353,7 +577,7 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
       in3 = (i3 && j2) || (i2 && j3);
     }
     let zone: number;
-    if (in3) zone = model.zone3AsZone2 ? 2 : 3;
+    if (in3) zone = zone3AsZone2 ? 2 : 3;
     else {
       let in2 = false;
       let in1 = false;
@@ -362,14 +586,9 @@ function segmentInto(px: number, py: number, d: Pt, len: number, roof: RoofEdges
         if (iv[o] <= t && t <= iv[o + 1]) in2 = true;
         if (iv[o + 4] <= t && t <= iv[o + 5]) in1 = true;
       }
-      zone = in2 ? 2 : steep ? 1 : in1 ? 1 : 0;
+      zone = in2 ? 2 : in1 ? 1 : 0;
     }
-    if (ns > 0 && SEG_ZONE[ns - 1] === zone) SEG_LEN[ns - 1] += seg;
-    else {
-      SEG_ZONE[ns] = zone;
-      SEG_LEN[ns] = seg;
-      ns++;
-    }
+    ns = pushSegment(segZone, segLen, ns, zone, seg);
   }
   return ns;
 }
@@ -421,25 +640,44 @@ export interface PlaneFastenerOptions {
 
 const ceilTol = (x: number) => Math.ceil(x - 1e-9);
 
+// Per-zone tallies of the plane planeFasteners is on, by zone code (1', 1, 2, 3): clips, line ft, area,
+// screws. Reused across calls (the engine is synchronous and single-threaded).
+const Z_CLIPS = new Float64Array(4);
+const Z_LINE = new Float64Array(4);
+const Z_AREA = new Float64Array(4);
+const Z_SCREWS = new Float64Array(4);
+const EXACT = new Float64Array(4);
+
 /** Share c clips of one run (segments i0..i1) among its zones in proportion to length (largest remainder). */
-function distribute(c: number, i0: number, i1: number, total: number, zones: ZoneCounts[]) {
+function distribute(c: number, i0: number, i1: number, total: number, segZone: Int8Array, segLen: Float64Array, clipsByZone: Float64Array) {
   if (c === 0 || !(total > 0)) return;
-  const exact = [0, 0, 0, 0];
-  for (let i = i0; i <= i1; i++) exact[SEG_ZONE[i]] += (c * SEG_LEN[i]) / total;
+  const exact = EXACT;
+  exact.fill(0);
+  for (let i = i0; i <= i1; i++) exact[segZone[i]] += (c * segLen[i]) / total;
   let given = 0;
   for (let z = 0; z < 4; z++) {
     const f = Math.floor(exact[z] + 1e-9);
-    zones[z].clips += f;
+    clipsByZone[z] += f;
     given += f;
     exact[z] -= f;
   }
   while (given < c) {
     let best = 0;
     for (let z = 1; z < 4; z++) if (exact[z] > exact[best]) best = z;
-    zones[best].clips += 1;
+    clipsByZone[best] += 1;
     exact[best] = -1;
     given++;
   }
+}
+
+/** Whether battens spaced battenSpacingIn force a clip spacing wider than the askedIn. */
+function limitedByBattens(askedIn: number, battenSpacingIn: number | null): boolean {
+  return battenSpacingIn !== null && battenSpacingIn > 0 && askedIn < battenSpacingIn - 1e-9;
+}
+
+/** The tallies of zone code z (see Z_CLIPS) as a ZoneCounts. */
+function zoneTally(z: number): ZoneCounts {
+  return { clips: Z_CLIPS[z], lineFt: Z_LINE[z], areaSqFt: Z_AREA[z], panelScrews: Z_SCREWS[z] };
 }
 
 /** Clip spacing usable over battens: a whole multiple of the batten spacing, never closer than it. */
@@ -456,80 +694,97 @@ export function spacingOverBattens(requiredIn: number, battenSpacingIn: number |
  * × screws per square.
  */
 export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: PanelLayout, opts: PlaneFastenerOptions): PlaneWindZones {
-  // Every line runs up the slope: the edges are prepared for that direction once (see `prepare`).
-  const roof = planeRoofEdges(pieces);
+  // Every line runs up the slope: the edges are prepared for that direction once (see planeRoofInto).
+  const upX = g.up[0];
+  const upY = g.up[1];
+  const roof = planeRoofInto(pieces, upX, upY);
+  ensureScratch(roof);
+  const segZone = SEG_ZONE;
+  const segLen = SEG_LEN;
+  const ox = g.origin[0];
+  const oy = g.origin[1];
+  const rx = g.right[0];
+  const ry = g.right[1];
   const k = g.slopeFactor;
   const w = panels.coverageWidthIn / 12;
-  const zones: Record<WindZone, ZoneCounts> = {
-    "1'": { clips: 0, lineFt: 0, areaSqFt: 0, panelScrews: 0 },
-    "1": { clips: 0, lineFt: 0, areaSqFt: 0, panelScrews: 0 },
-    "2": { clips: 0, lineFt: 0, areaSqFt: 0, panelScrews: 0 },
-    "3": { clips: 0, lineFt: 0, areaSqFt: 0, panelScrews: 0 },
-  };
+  const model = opts.model;
   const spacing: ZoneSpacing = {
     field: spacingOverBattens(opts.clipSpacingIn.field, opts.battenSpacingIn),
     edge: spacingOverBattens(opts.clipSpacingIn.edge, opts.battenSpacingIn),
     corner: spacingOverBattens(opts.clipSpacingIn.corner, opts.battenSpacingIn),
   };
-  const limited = new Set<WindZone>();
+  // By zone code (1', 1, 2, 3): the spacing used, whether the battens forced it wider than asked, and
+  // exposed-fastener screws per square.
+  const spacingOf = [spacing.field, spacing.field, spacing.edge, spacing.corner];
+  const bs = opts.battenSpacingIn;
+  const limitedOf = [
+    limitedByBattens(opts.clipSpacingIn.field, bs),
+    limitedByBattens(opts.clipSpacingIn.field, bs),
+    limitedByBattens(opts.clipSpacingIn.edge, bs),
+    limitedByBattens(opts.clipSpacingIn.corner, bs),
+  ];
+  const screwsOf = [opts.screwsPerSquare.field, opts.screwsPerSquare.field, opts.screwsPerSquare.edge, opts.screwsPerSquare.corner];
+  // Limited zones in the order first met (a bit per zone code marks those already listed).
+  const limited: WindZone[] = [];
+  let limitedSeen = 0;
+  Z_CLIPS.fill(0);
+  Z_LINE.fill(0);
+  Z_AREA.fill(0);
+  Z_SCREWS.fill(0);
   const clipsPerPanel: number[] = [];
   let clips = 0;
   let panelScrews = 0;
-  const zoneList = [zones["1'"], zones["1"], zones["2"], zones["3"]];
-  const keyOf = ["field", "field", "edge", "corner"] as const;
-  // By zone code (1', 1, 2, 3): the spacing used, the spacing asked for, exposed-fastener screws per square.
-  const spacingOf = keyOf.map((key) => spacing[key]);
-  const limitedOf = keyOf.map((key) => opts.battenSpacingIn !== null && opts.battenSpacingIn > 0 && opts.clipSpacingIn[key] < opts.battenSpacingIn - 1e-9);
-  const screwsOf = keyOf.map((key) => opts.screwsPerSquare[key]);
-  const up = g.up;
   const pp = panels.pieces;
-  for (let pi = 0; pi < pp.count; pi++) {
-    const vMin = pp.vMin(pi);
-    const len = pp.vMax(pi) - vMin;
-    if (opts.system === "standing-seam") {
-      const ns = segmentInto(
-        g.origin[0] + pp.clipLineS(pi) * g.right[0] + vMin * up[0],
-        g.origin[1] + pp.clipLineS(pi) * g.right[1] + vMin * up[1],
-        up,
-        len,
-        roof,
-        opts.model,
-      );
+  const count = pp.count;
+  if (opts.system === "standing-seam") {
+    for (let pi = 0; pi < count; pi++) {
+      const vMin = pp.vMin(pi);
+      const len = pp.vMax(pi) - vMin;
+      const s = pp.clipLineS(pi);
+      const ns = segmentInto(ox + s * rx + vMin * upX, oy + s * ry + vMin * upY, upX, upY, len, roof, model);
       let n = ns ? 1 : 0;
-      if (ns) zoneList[SEG_ZONE[0]].clips += 1;
+      if (ns) Z_CLIPS[segZone[0]] += 1;
       // Neighbouring zones with the same spacing are one run of the clip schedule.
       let runStart = 0;
       for (let i = 0; i < ns; i++) {
-        const z = SEG_ZONE[i];
-        if (limitedOf[z]) limited.add(ZONE_BY_CODE[z]);
-        zoneList[z].lineFt += SEG_LEN[i] * k;
-        const last = i === ns - 1 || Math.abs(spacingOf[SEG_ZONE[i + 1]] - spacingOf[z]) >= 1e-9;
+        const z = segZone[i];
+        if (limitedOf[z] && !(limitedSeen & (1 << z))) {
+          limitedSeen |= 1 << z;
+          limited.push(ZONE_BY_CODE[z]);
+        }
+        Z_LINE[z] += segLen[i] * k;
+        const last = i === ns - 1 || Math.abs(spacingOf[segZone[i + 1]] - spacingOf[z]) >= 1e-9;
         if (!last) continue;
         let runFt = 0;
-        for (let j = runStart; j <= i; j++) runFt += SEG_LEN[j];
+        for (let j = runStart; j <= i; j++) runFt += segLen[j];
         const c = ceilTol((runFt * k * 12) / spacingOf[z]);
         n += c;
-        if (runStart === i) zoneList[z].clips += c;
-        else distribute(c, runStart, i, runFt, zoneList);
+        if (runStart === i) Z_CLIPS[z] += c;
+        else distribute(c, runStart, i, runFt, segZone, segLen, Z_CLIPS);
         runStart = i + 1;
       }
       clipsPerPanel.push(n);
       clips += n;
-    } else {
+    }
+  } else {
+    for (let pi = 0; pi < count; pi++) {
+      const vMin = pp.vMin(pi);
+      const len = pp.vMax(pi) - vMin;
       const sc = (pp.sMin(pi) + pp.sMax(pi)) / 2;
-      const ns = segmentInto(g.origin[0] + sc * g.right[0] + vMin * up[0], g.origin[1] + sc * g.right[1] + vMin * up[1], up, len, roof, opts.model);
+      const ns = segmentInto(ox + sc * rx + vMin * upX, oy + sc * ry + vMin * upY, upX, upY, len, roof, model);
       for (let i = 0; i < ns; i++) {
-        const z = SEG_ZONE[i];
-        const area = w * SEG_LEN[i] * k;
+        const z = segZone[i];
+        const area = w * segLen[i] * k;
         const screws = (area / 100) * screwsOf[z];
-        zoneList[z].areaSqFt += area;
-        zoneList[z].lineFt += SEG_LEN[i] * k;
-        zoneList[z].panelScrews += screws;
+        Z_AREA[z] += area;
+        Z_LINE[z] += segLen[i] * k;
+        Z_SCREWS[z] += screws;
         panelScrews += screws;
       }
     }
   }
-  const m = opts.model;
+  const zones: Record<WindZone, ZoneCounts> = { "1'": zoneTally(0), "1": zoneTally(1), "2": zoneTally(2), "3": zoneTally(3) };
+  const m = model;
   const widths: PlaneWindZones["widths"] =
     m.kind === "steep"
       ? { zone2PlanFt: m.aFt, zone2SlopeFt: m.aFt * k, zone3PlanFt: [m.aFt, m.aFt], zone3SlopeFt: [m.aFt * k, m.aFt * k] }
@@ -551,6 +806,6 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
     clips,
     clipsPerPanel,
     panelScrews,
-    spacingLimitedByBattens: [...limited],
+    spacingLimitedByBattens: limited,
   };
 }
