@@ -10,7 +10,6 @@
  */
 import { TOL } from "../constants";
 import type { PlaneGeometry } from "../roof/geometry";
-import { crossingsInto } from "../roof/polygon";
 import { ceilTol } from "../format";
 
 export interface BattenRow {
@@ -35,13 +34,64 @@ export interface BattenTotals {
   fasteners: number;
 }
 
-const CROSSINGS: number[] = [];
+// One plane's edges for the lines of one layer (the engine is synchronous; a layer is laid before the next):
+// for edge i, its start's coordinate across the lines (E_AX) and along them (E_O), and the differences to its
+// end (E_DAX, E_DO); the end's coordinate across the lines (E_BAX). Read once per layer instead of once per
+// line from the nested point arrays. X holds one line's crossings.
+let E_AX = new Float64Array(16);
+let E_O = new Float64Array(16);
+let E_BAX = new Float64Array(16);
+let E_DAX = new Float64Array(16);
+let E_DO = new Float64Array(16);
+let X = new Float64Array(16);
 
-/** One line at `at` (clamped just inside lo … hi): its pieces added to `t` (and to `rows` when given). */
-function layLine(g: PlaneGeometry, axis: 0 | 1, at: number, lo: number, hi: number, k: number, fastenerSpacingIn: number, t: BattenTotals, rows?: BattenRow[]): void {
-  const xs = crossingsInto(g.local, axis, Math.min(Math.max(at, lo + nudge), hi - nudge), CROSSINGS);
-  for (let i = 0; i + 1 < xs.length; i += 2) {
-    const len = (xs[i + 1] - xs[i]) * k;
+function loadEdges(poly: PlaneGeometry["local"], axis: 0 | 1): number {
+  const n = poly.length;
+  if (E_AX.length < n) {
+    E_AX = new Float64Array(2 * n);
+    E_O = new Float64Array(2 * n);
+    E_BAX = new Float64Array(2 * n);
+    E_DAX = new Float64Array(2 * n);
+    E_DO = new Float64Array(2 * n);
+    X = new Float64Array(2 * n);
+  }
+  const o = axis === 1 ? 0 : 1; // the coordinate measured along the line
+  for (let i = 0; i < n; i++) {
+    const p = poly[i];
+    const q = poly[i + 1 < n ? i + 1 : 0];
+    E_AX[i] = p[axis];
+    E_O[i] = p[o];
+    E_BAX[i] = q[axis];
+    E_DAX[i] = q[axis] - p[axis];
+    E_DO[i] = q[o] - p[o];
+  }
+  return n;
+}
+
+/**
+ * One line at `at` (clamped just inside lo … hi) across the n edges loaded by loadEdges: its pieces added to
+ * `t` (and to `rows` when given). The crossings are those of crossingsInto (../roof/polygon), by the same
+ * arithmetic: the half-open rule, x = a + (c − a⊥)·Δ / Δ⊥, sorted along the line, inside between pairs.
+ */
+function layLine(n: number, at: number, lo: number, hi: number, k: number, fastenerSpacingIn: number, t: BattenTotals, rows?: BattenRow[]): void {
+  const c = Math.min(Math.max(at, lo + nudge), hi - nudge);
+  let nx = 0;
+  for (let i = 0; i < n; i++) {
+    const a = E_AX[i];
+    if (a > c !== E_BAX[i] > c) {
+      const x = E_O[i] + ((c - a) * E_DO[i]) / E_DAX[i];
+      // insertion in order along the line (a handful of crossings)
+      let j = nx - 1;
+      while (j >= 0 && X[j] > x) {
+        X[j + 1] = X[j];
+        j--;
+      }
+      X[j + 1] = x;
+      nx++;
+    }
+  }
+  for (let i = 0; i + 1 < nx; i += 2) {
+    const len = (X[i + 1] - X[i]) * k;
     if (!(len > TOL)) continue;
     const fasteners = ceilTol((len * 12) / fastenerSpacingIn) + 1;
     t.rows++;
@@ -59,13 +109,14 @@ function layLine(g: PlaneGeometry, axis: 0 | 1, at: number, lo: number, hi: numb
  */
 function layLines(g: PlaneGeometry, axis: 0 | 1, lo: number, hi: number, step: number, k: number, fastenerSpacingIn: number, rows?: BattenRow[]): BattenTotals {
   const t: BattenTotals = { rows: 0, lf: 0, fasteners: 0 };
+  const n = loadEdges(g.local, axis);
   if (!(step > 0) || hi - lo <= TOL) {
-    layLine(g, axis, lo, lo, hi, k, fastenerSpacingIn, t, rows);
-    if (hi - lo > 0) layLine(g, axis, hi, lo, hi, k, fastenerSpacingIn, t, rows);
+    layLine(n, lo, lo, hi, k, fastenerSpacingIn, t, rows);
+    if (hi - lo > 0) layLine(n, hi, lo, hi, k, fastenerSpacingIn, t, rows);
     return t;
   }
-  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) layLine(g, axis, x, lo, hi, k, fastenerSpacingIn, t, rows);
-  layLine(g, axis, hi, lo, hi, k, fastenerSpacingIn, t, rows);
+  for (let x = lo, j = 0; x < hi - TOL; x = lo + ++j * step) layLine(n, x, lo, hi, k, fastenerSpacingIn, t, rows);
+  layLine(n, hi, lo, hi, k, fastenerSpacingIn, t, rows);
   return t;
 }
 

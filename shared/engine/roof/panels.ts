@@ -11,7 +11,7 @@
  */
 import { TOL } from "../constants";
 import type { PlaneGeometry } from "./geometry";
-import { convexStripComponent, isConvex, stripComponents, type StripComponent } from "./polygon";
+import { StripSlicer, type StripComponent } from "./polygon";
 
 export type PanelStart = "left" | "right" | "centred";
 
@@ -58,6 +58,24 @@ export class PanelPieces implements Iterable<PanelPiece> {
 
   /** Appends one panel; returns its index. */
   push(p: PanelPiece): number {
+    return this.add(p.stripS0, p.stripS1, p.sMin, p.sMax, p.vMin, p.vMax, p.slopeLengthFt, p.lengthIn, p.bottomEdge, p.topEdge, p.sProbe, p.clipLineS);
+  }
+
+  /** Appends one panel given field by field (no record object); returns its index. */
+  add(
+    stripS0: number,
+    stripS1: number,
+    sMin: number,
+    sMax: number,
+    vMin: number,
+    vMax: number,
+    slopeLengthFt: number,
+    lengthIn: number,
+    bottomEdge: number,
+    topEdge: number,
+    sProbe: number,
+    clipLineS: number,
+  ): number {
     if (this.count * NI === this.n.length) {
       const f = new Float64Array(this.f.length * 2);
       f.set(this.f);
@@ -69,19 +87,20 @@ export class PanelPieces implements Iterable<PanelPiece> {
     const i = this.count++;
     const o = i * NF;
     const f = this.f;
-    f[o] = p.stripS0;
-    f[o + 1] = p.stripS1;
-    f[o + 2] = p.sMin;
-    f[o + 3] = p.sMax;
-    f[o + 4] = p.vMin;
-    f[o + 5] = p.vMax;
-    f[o + 6] = p.slopeLengthFt;
-    f[o + 7] = p.sProbe;
-    f[o + 8] = p.clipLineS;
+    f[o] = stripS0;
+    f[o + 1] = stripS1;
+    f[o + 2] = sMin;
+    f[o + 3] = sMax;
+    f[o + 4] = vMin;
+    f[o + 5] = vMax;
+    f[o + 6] = slopeLengthFt;
+    f[o + 7] = sProbe;
+    f[o + 8] = clipLineS;
     const m = i * NI;
-    this.n[m] = p.lengthIn;
-    this.n[m + 1] = p.bottomEdge;
-    this.n[m + 2] = p.topEdge;
+    const nn = this.n;
+    nn[m] = lengthIn;
+    nn[m + 1] = bottomEdge;
+    nn[m + 2] = topEdge;
     return i;
   }
 
@@ -194,24 +213,54 @@ export function stripStarts(sMin: number, sMax: number, w: number, start: PanelS
   return out;
 }
 
-/** The panel of strip a…b over piece c, written into `rec`; false when the piece is TOL wide or less. */
-function fillPiece(rec: PanelPiece, c: StripComponent, a: number, b: number, k: number, hem: number, right: boolean): boolean {
-  if (c.sMax - c.sMin <= TOL) return false;
+// Per-layout scratch (the engine is synchronous): the plane cut into strips, one piece record for convex
+// planes, and the counts of the cut list.
+const SLICER = new StripSlicer();
+const PIECE: StripComponent = { sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 };
+let LENGTH_COUNT = new Int32Array(256);
+
+/** Appends the panel of strip a…b over piece c; returns its ordered length. */
+function addPiece(pieces: PanelPieces, c: StripComponent, a: number, b: number, k: number, hem: number, right: boolean): number {
   const slopeLengthFt = k * (c.vMax - c.vMin);
   const seam = right ? b : a;
-  rec.stripS0 = a;
-  rec.stripS1 = b;
-  rec.sMin = c.sMin;
-  rec.sMax = c.sMax;
-  rec.vMin = c.vMin;
-  rec.vMax = c.vMax;
-  rec.slopeLengthFt = slopeLengthFt;
-  rec.lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
-  rec.bottomEdge = c.bottomEdge;
-  rec.topEdge = c.topEdge;
-  rec.sProbe = c.sProbe;
-  rec.clipLineS = Math.min(Math.max(seam, c.sMin), c.sMax);
-  return true;
+  const lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
+  pieces.add(a, b, c.sMin, c.sMax, c.vMin, c.vMax, slopeLengthFt, lengthIn, c.bottomEdge, c.topEdge, c.sProbe, Math.min(Math.max(seam, c.sMin), c.sMax));
+  return lengthIn;
+}
+
+/**
+ * Cut list: equal lengths grouped, longest first. The lengths are whole inches in a narrow range, so they
+ * are counted by value (no sort); an unusual list (a range over 4,096 in, or a value that is not a 32-bit
+ * integer) takes the sorted path, which groups the values as Int32Array stores them.
+ */
+function cutListOf(lengthsIn: number[], minIn: number, maxIn: number): CutListEntry[] {
+  const n = lengthsIn.length;
+  const cutList: CutListEntry[] = [];
+  if (n === 0) return cutList;
+  const range = maxIn - minIn + 1;
+  let plain = range <= 4096 && (minIn | 0) === minIn && (maxIn | 0) === maxIn;
+  for (let i = 0; plain && i < n; i++) if ((lengthsIn[i] | 0) !== lengthsIn[i]) plain = false;
+  if (plain) {
+    if (LENGTH_COUNT.length < range) LENGTH_COUNT = new Int32Array(Math.max(range, LENGTH_COUNT.length * 2));
+    const cnt = LENGTH_COUNT;
+    for (let i = 0; i < n; i++) cnt[lengthsIn[i] - minIn]++;
+    for (let l = maxIn; l >= minIn; l--) {
+      const c = cnt[l - minIn];
+      if (c === 0) continue;
+      cutList.push({ lengthIn: l, count: c });
+      cnt[l - minIn] = 0; // leave the scratch zeroed for the next plane
+    }
+    return cutList;
+  }
+  const sorted = Int32Array.from(lengthsIn).sort();
+  for (let i = n - 1; i >= 0; ) {
+    const l = sorted[i];
+    let j = i;
+    while (j >= 0 && sorted[j] === l) j--;
+    cutList.push({ lengthIn: l, count: i - j });
+    i = j;
+  }
+  return cutList;
 }
 
 export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout {
@@ -223,38 +272,32 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   const starts = stripStarts(g.sMin, g.sMax, w, start);
   const pieces = opts.into ?? new PanelPieces(starts.length);
   pieces.count = 0;
-  const convex = isConvex(g.local);
-  const scratch: StripComponent = { sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 };
+  // The plane's edges are read once; each strip is then cut from typed arrays without allocating.
+  const slicer = SLICER.load(g.local);
+  const convex = slicer.isConvex();
   let totalIn = 0;
   let longestIn = 0;
-  // One reusable record: push copies it into the packed arrays.
-  const rec: PanelPiece = { stripS0: 0, stripS1: 0, sMin: 0, sMax: 0, vMin: 0, vMax: 0, slopeLengthFt: 0, lengthIn: 0, bottomEdge: 0, topEdge: 0, sProbe: 0, clipLineS: 0 };
+  let shortestIn = Infinity;
   const lengthsIn: number[] = [];
   const right = start === "right";
-  for (const a of starts) {
+  for (let s = 0; s < starts.length; s++) {
+    const a = starts[s];
     const b = a + w;
-    const pieceList = convex ? null : stripComponents(g.local, a, b);
-    const m = pieceList ? pieceList.length : 1;
+    // A convex plane has at most one piece per strip; any other plane may have several (a notch).
+    const m = convex ? 1 : slicer.slice(a, b);
     for (let q = 0; q < m; q++) {
-      const c = pieceList ? pieceList[q] : convexStripComponent(g.local, a, b, scratch);
-      if (!c || !fillPiece(rec, c, a, b, k, hem, right)) continue;
-      pieces.push(rec);
-      lengthsIn.push(rec.lengthIn);
-      totalIn += rec.lengthIn;
-      if (rec.lengthIn > longestIn) longestIn = rec.lengthIn;
+      const c = convex ? slicer.convex(a, b, PIECE) : slicer.pieces[q];
+      // A piece TOL wide or less is no panel.
+      if (!c || c.sMax - c.sMin <= TOL) continue;
+      const lengthIn = addPiece(pieces, c, a, b, k, hem, right);
+      lengthsIn.push(lengthIn);
+      totalIn += lengthIn;
+      if (lengthIn > longestIn) longestIn = lengthIn;
+      if (lengthIn < shortestIn) shortestIn = lengthIn;
     }
   }
   const n = pieces.count;
-  // Cut list: equal lengths grouped, longest first (a sorted copy, counted in one pass).
-  const sorted = Int32Array.from(lengthsIn).sort();
-  const cutList: CutListEntry[] = [];
-  for (let i = n - 1; i >= 0; ) {
-    const l = sorted[i];
-    let j = i;
-    while (j >= 0 && sorted[j] === l) j--;
-    cutList.push({ lengthIn: l, count: i - j });
-    i = j;
-  }
+  const cutList = cutListOf(lengthsIn, shortestIn, longestIn);
   const totalLengthFt = totalIn / 12;
   const orderedAreaSqFt = w * totalLengthFt;
   return {

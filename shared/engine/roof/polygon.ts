@@ -158,9 +158,13 @@ export interface StripComponent {
   sProbe: number;
 }
 
+const newComponent = (): StripComponent => ({ sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 });
 
-// Scratch space for stripComponents (the engine is synchronous and single-threaded): crossings of one slab and
-// the trapezoids of one strip, by column, grown on demand.
+// Scratch space for StripSlicer.slice (the engine is synchronous and single-threaded, and a slice is finished
+// before the next begins): the cut lines and slab starts of one strip, the crossings of one slab and the
+// trapezoids of one strip, by column, grown on demand.
+let CUT = new Float64Array(16);
+let SLAB_START = new Int32Array(16);
 let X_VM = new Float64Array(32);
 let X_V0 = new Float64Array(32);
 let X_V1 = new Float64Array(32);
@@ -181,8 +185,6 @@ let G_V1 = new Float64Array(64);
 let G_BOT = new Int32Array(64);
 let G_TOP = new Int32Array(64);
 let G_COL = new Uint8Array(64);
-const CUT: number[] = [];
-const SLAB_START: number[] = [];
 
 function ensureTraps(n: number): void {
   if (T_S0.length >= n) return;
@@ -212,158 +214,363 @@ function ensureTraps(n: number): void {
 }
 
 /**
- * Connected pieces of the polygon inside the strip a ≤ s ≤ b (local (s, v) coordinates).
- * The strip is cut into slabs at every vertex s; in a slab the edges crossing it do not cross each
- * other (simple polygon), so the polygon is a stack of trapezoids, paired bottom/top in v order.
- * Trapezoids of neighbouring slabs whose v intervals overlap on the shared line are one piece.
- * Each piece's bottom and top edges are read in the middle of the piece, on the trapezoid there with the
- * lowest bottom (and the one with the highest top).
+ * A polygon (local (s, v)) prepared for cutting into many strips a ≤ s ≤ b, as a panel layout does with each
+ * plane. `load` reads the corners once into typed arrays: each edge's start and end, its slope dv/ds and its s
+ * range, and the corners' s in ascending order; each strip is then cut without reading the nested point
+ * arrays, without a modulo per edge and without allocating (the pieces are reused objects). Every value is
+ * computed by the same floating-point operations, in the same order, as from the points themselves, so the
+ * results are bit-identical to stripComponents and convexStripComponent (which use this class).
+ */
+export class StripSlicer {
+  /** Corner count of the loaded polygon. */
+  n = 0;
+  /** Least and greatest s of the corners. */
+  sMin = Infinity;
+  sMax = -Infinity;
+  /** The pieces found by the last `slice`, entries 0 … count − 1 (the objects are reused by the next slice). */
+  readonly pieces: StripComponent[] = [];
+  // Edge i runs from corner i (ps, pv) to corner i + 1 (qs, qv).
+  private ps = new Float64Array(8);
+  private pv = new Float64Array(8);
+  private qs = new Float64Array(8);
+  private qv = new Float64Array(8);
+  /** Edge slope dv/ds ((qv − pv) / (qs − ps), ±Infinity or NaN for an edge at constant s: never read then). */
+  private m = new Float64Array(8);
+  /** Edge s range widened by 1e-12 for the convex cut; empty (+∞, −∞) for an edge less than 1e-12 long in s. */
+  private lo = new Float64Array(8);
+  private hi = new Float64Array(8);
+  /** Corner s in ascending order (equal values in corner order). */
+  private sorted = new Float64Array(8);
+
+  /** Reads the polygon's corners; returns this. */
+  load(poly: readonly Pt[]): this {
+    const n = poly.length;
+    if (this.ps.length < n) {
+      const c = Math.max(n, this.ps.length * 2);
+      this.ps = new Float64Array(c);
+      this.pv = new Float64Array(c);
+      this.qs = new Float64Array(c);
+      this.qv = new Float64Array(c);
+      this.m = new Float64Array(c);
+      this.lo = new Float64Array(c);
+      this.hi = new Float64Array(c);
+      this.sorted = new Float64Array(c);
+    }
+    const { ps, pv, qs, qv, m, lo, hi, sorted } = this;
+    this.n = n;
+    let sMin = Infinity;
+    let sMax = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const s = poly[i][0];
+      ps[i] = s;
+      pv[i] = poly[i][1];
+      if (s < sMin) sMin = s;
+      if (s > sMax) sMax = s;
+    }
+    this.sMin = sMin;
+    this.sMax = sMax;
+    for (let i = 0; i < n; i++) {
+      const j = i + 1 < n ? i + 1 : 0;
+      const p0 = ps[i];
+      const q0 = ps[j];
+      qs[i] = q0;
+      qv[i] = pv[j];
+      m[i] = (pv[j] - pv[i]) / (q0 - p0);
+      const l = p0 < q0 ? p0 : q0;
+      const h = p0 < q0 ? q0 : p0;
+      if (h - l < 1e-12) {
+        lo[i] = Infinity;
+        hi[i] = -Infinity;
+      } else {
+        lo[i] = l - 1e-12;
+        hi[i] = h + 1e-12;
+      }
+    }
+    // Insertion sort (a handful of corners), stable like sortSmall.
+    for (let i = 0; i < n; i++) {
+      const x = ps[i];
+      let j = i - 1;
+      while (j >= 0 && sorted[j] > x) {
+        sorted[j + 1] = sorted[j];
+        j--;
+      }
+      sorted[j + 1] = x;
+    }
+    return this;
+  }
+
+  /** True when the loaded polygon is convex (collinear corners allowed): isConvex on the stored corners. */
+  isConvex(): boolean {
+    const { n, ps, pv } = this;
+    let sign = 0;
+    for (let i = 0; i < n; i++) {
+      const j = i + 1 < n ? i + 1 : i + 1 - n;
+      const k = i + 2 < n ? i + 2 : i + 2 - n;
+      // cross(corner i, corner j, corner k), the same expression as `cross`.
+      const c = (ps[j] - ps[i]) * (pv[k] - pv[i]) - (pv[j] - pv[i]) * (ps[k] - ps[i]);
+      if (Math.abs(c) <= 1e-12) continue;
+      const s = c > 0 ? 1 : -1;
+      if (sign === 0) sign = s;
+      else if (s !== sign) return false;
+    }
+    return true;
+  }
+
+  /**
+   * The strip's piece of the loaded polygon when it is convex (at most one): its v range is reached at the
+   * strip's sides or at corners inside the strip; its bottom and top edges are the lowest and highest at the
+   * strip's middle. Written into `into` when given, else a new object.
+   */
+  convex(a: number, b: number, into?: StripComponent): StripComponent | null {
+    const { n, ps, pv, m, lo, hi } = this;
+    const s0 = Math.max(a, this.sMin);
+    const s1 = Math.min(b, this.sMax);
+    if (!(s1 - s0 > 1e-12)) return null;
+    let vMin = Infinity;
+    let vMax = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const s = ps[i];
+      if (s >= s0 && s <= s1) {
+        const v = pv[i];
+        if (v < vMin) vMin = v;
+        if (v > vMax) vMax = v;
+      }
+    }
+    const sMid = (s0 + s1) / 2;
+    let bottomEdge = -1;
+    let topEdge = -1;
+    let vb = Infinity;
+    let vt = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const l = lo[i];
+      const h = hi[i];
+      // An edge at constant s has the empty range and is skipped by every test below.
+      const mi = m[i];
+      const p0 = ps[i];
+      const p1 = pv[i];
+      // The edge's v at the strip sides it spans (tolerant ends).
+      if (s0 >= l && s0 <= h) {
+        const v = p1 + (s0 - p0) * mi;
+        if (v < vMin) vMin = v;
+        if (v > vMax) vMax = v;
+      }
+      if (s1 >= l && s1 <= h) {
+        const v = p1 + (s1 - p0) * mi;
+        if (v < vMin) vMin = v;
+        if (v > vMax) vMax = v;
+      }
+      // Inclusive: at a corner both edges meeting there give the same v; the first one is kept.
+      if (sMid >= l && sMid <= h) {
+        const v = p1 + (sMid - p0) * mi;
+        if (v < vb) {
+          vb = v;
+          bottomEdge = i;
+        }
+        if (v > vt) {
+          vt = v;
+          topEdge = i;
+        }
+      }
+    }
+    if (bottomEdge < 0 || topEdge < 0) return null;
+    const c = into ?? newComponent();
+    c.sMin = s0;
+    c.sMax = s1;
+    c.vMin = vMin;
+    c.vMax = vMax;
+    c.bottomEdge = bottomEdge;
+    c.topEdge = topEdge;
+    c.sProbe = sMid;
+    return c;
+  }
+
+  /**
+   * Connected pieces of the loaded polygon (any simple polygon) inside the strip a ≤ s ≤ b, into
+   * `pieces[0 … count − 1]` sorted by vMin then sMin; returns the count.
+   * The strip is cut into slabs at every corner s; in a slab the edges crossing it do not cross each
+   * other (simple polygon), so the polygon is a stack of trapezoids, paired bottom/top in v order.
+   * Trapezoids of neighbouring slabs whose v intervals overlap on the shared line are one piece.
+   * Each piece's bottom and top edges are read in the middle of the piece, on the trapezoid there with the
+   * lowest bottom (and the one with the highest top).
+   */
+  slice(a: number, b: number): number {
+    const { n, ps, pv, qs, m, sorted } = this;
+    if (X_VM.length < n) {
+      X_VM = new Float64Array(2 * n);
+      X_V0 = new Float64Array(2 * n);
+      X_V1 = new Float64Array(2 * n);
+      X_E = new Int32Array(2 * n);
+    }
+    if (CUT.length < n + 2) {
+      CUT = new Float64Array(2 * n + 2);
+      SLAB_START = new Int32Array(2 * n + 2);
+    }
+    // Cut lines: a, the corners strictly inside the strip in ascending s, b.
+    const cuts = CUT;
+    let nc = 0;
+    cuts[nc++] = a;
+    for (let i = 0; i < n; i++) if (sorted[i] > a && sorted[i] < b) cuts[nc++] = sorted[i];
+    cuts[nc++] = b;
+    // Trapezoids, slab by slab (a slab's trapezoids are consecutive; SLAB_START marks where each begins).
+    let nt = 0;
+    const slabStart = SLAB_START;
+    let ns = 0;
+    for (let k = 0; k + 1 < nc; k++) {
+      const s0 = cuts[k];
+      const s1 = cuts[k + 1];
+      if (s1 - s0 <= 1e-12) continue;
+      const sm = (s0 + s1) / 2;
+      let nx = 0;
+      for (let i = 0; i < n; i++) {
+        const p0 = ps[i];
+        if (p0 > sm !== qs[i] > sm) {
+          const p1 = pv[i];
+          const mi = m[i];
+          const vm = p1 + (sm - p0) * mi;
+          const v0 = p1 + (s0 - p0) * mi;
+          const v1 = p1 + (s1 - p0) * mi;
+          // insertion by vm (a handful of crossings)
+          let j = nx - 1;
+          while (j >= 0 && X_VM[j] > vm) {
+            X_VM[j + 1] = X_VM[j];
+            X_V0[j + 1] = X_V0[j];
+            X_V1[j + 1] = X_V1[j];
+            X_E[j + 1] = X_E[j];
+            j--;
+          }
+          X_VM[j + 1] = vm;
+          X_V0[j + 1] = v0;
+          X_V1[j + 1] = v1;
+          X_E[j + 1] = i;
+          nx++;
+        }
+      }
+      slabStart[ns++] = nt;
+      ensureTraps(nt + (nx >> 1) + 1);
+      for (let i = 0; i + 1 < nx; i += 2) {
+        T_S0[nt] = s0;
+        T_S1[nt] = s1;
+        T_LO0[nt] = X_V0[i];
+        T_LO1[nt] = X_V1[i];
+        T_HI0[nt] = X_V0[i + 1];
+        T_HI1[nt] = X_V1[i + 1];
+        T_LOE[nt] = X_E[i];
+        T_HIE[nt] = X_E[i + 1];
+        T_PARENT[nt] = nt;
+        nt++;
+      }
+    }
+    slabStart[ns] = nt;
+    // Union-find over trapezoids of neighbouring slabs that touch along their shared line.
+    for (let k = 0; k + 1 < ns; k++) {
+      const l0 = slabStart[k];
+      const l1 = slabStart[k + 1];
+      const r1 = slabStart[k + 2];
+      if (l0 === l1 || l1 === r1) continue;
+      if (Math.abs(T_S1[l0] - T_S0[l1]) > 1e-12) continue;
+      for (let i = l0; i < l1; i++) {
+        for (let j = l1; j < r1; j++) {
+          if (Math.max(T_LO1[i], T_LO0[j]) < Math.min(T_HI1[i], T_HI0[j]) - 1e-9) {
+            let x = i;
+            while (T_PARENT[x] !== x) x = T_PARENT[x];
+            let y = j;
+            while (T_PARENT[y] !== y) y = T_PARENT[y];
+            T_PARENT[x] = y;
+          }
+        }
+      }
+    }
+    // Each piece's extent, by its root.
+    for (let i = 0; i < nt; i++) {
+      let r = i;
+      while (T_PARENT[r] !== r) r = T_PARENT[r];
+      T_PARENT[i] = r;
+    }
+    for (let i = 0; i < nt; i++) {
+      if (T_PARENT[i] !== i) continue;
+      G_S0[i] = Infinity;
+      G_S1[i] = -Infinity;
+      G_V0[i] = Infinity;
+      G_V1[i] = -Infinity;
+      G_BOT[i] = -1;
+      G_TOP[i] = -1;
+      G_COL[i] = 0;
+    }
+    for (let i = 0; i < nt; i++) {
+      const r = T_PARENT[i];
+      if (T_S0[i] < G_S0[r]) G_S0[r] = T_S0[i];
+      if (T_S1[i] > G_S1[r]) G_S1[r] = T_S1[i];
+      const lo = T_LO0[i] < T_LO1[i] ? T_LO0[i] : T_LO1[i];
+      const hi = T_HI0[i] > T_HI1[i] ? T_HI0[i] : T_HI1[i];
+      if (lo < G_V0[r]) G_V0[r] = lo;
+      if (hi > G_V1[r]) G_V1[r] = hi;
+    }
+    // The probe column: trapezoids containing the piece's middle (or all of the piece when none does).
+    for (let i = 0; i < nt; i++) {
+      const r = T_PARENT[i];
+      const sMid = (G_S0[r] + G_S1[r]) / 2;
+      if (T_S0[i] <= sMid && sMid <= T_S1[i]) G_COL[r] = 1;
+    }
+    for (let i = 0; i < nt; i++) {
+      const r = T_PARENT[i];
+      if (G_COL[r]) {
+        const sMid = (G_S0[r] + G_S1[r]) / 2;
+        if (!(T_S0[i] <= sMid && sMid <= T_S1[i])) continue;
+      }
+      const bot = G_BOT[r];
+      if (bot < 0 || T_LO0[i] + T_LO1[i] < T_LO0[bot] + T_LO1[bot]) G_BOT[r] = i;
+      const top = G_TOP[r];
+      if (top < 0 || T_HI0[i] + T_HI1[i] > T_HI0[top] + T_HI1[top]) G_TOP[r] = i;
+    }
+    // One piece per root, in root order, then sorted by (vMin, sMin) with a stable insertion sort: the same
+    // order as a stable Array.prototype.sort with that comparator.
+    const out = this.pieces;
+    let count = 0;
+    for (let i = 0; i < nt; i++) {
+      if (T_PARENT[i] !== i) continue;
+      const bottom = G_BOT[i];
+      const sMid = (G_S0[i] + G_S1[i]) / 2;
+      if (count === out.length) out.push(newComponent());
+      const c = out[count];
+      c.sMin = G_S0[i];
+      c.sMax = G_S1[i];
+      c.vMin = G_V0[i];
+      c.vMax = G_V1[i];
+      c.bottomEdge = T_LOE[bottom];
+      c.topEdge = T_HIE[G_TOP[i]];
+      c.sProbe = Math.min(Math.max(sMid, T_S0[bottom]), T_S1[bottom]);
+      let j = count - 1;
+      while (j >= 0 && (out[j].vMin - c.vMin || out[j].sMin - c.sMin) > 0) {
+        out[j + 1] = out[j];
+        j--;
+      }
+      out[j + 1] = c;
+      count++;
+    }
+    return count;
+  }
+}
+
+/** The slicer behind the one-strip functions below (each call loads the polygon afresh). */
+const ONE_STRIP = new StripSlicer();
+
+/**
+ * Connected pieces of the polygon inside the strip a ≤ s ≤ b (local (s, v) coordinates), sorted by vMin then
+ * sMin; see StripSlicer.slice. With `convex` the polygon is taken to be convex (convexStripComponent).
+ * New objects each call: a caller cutting many strips of one polygon should use a StripSlicer.
  */
 export function stripComponents(poly: readonly Pt[], a: number, b: number, convex = false): StripComponent[] {
+  const s = ONE_STRIP.load(poly);
   if (convex) {
-    const c = convexStripComponent(poly, a, b);
+    const c = s.convex(a, b);
     return c ? [c] : [];
   }
-  const n = poly.length;
-  if (X_VM.length < n) {
-    X_VM = new Float64Array(2 * n);
-    X_V0 = new Float64Array(2 * n);
-    X_V1 = new Float64Array(2 * n);
-    X_E = new Int32Array(2 * n);
-  }
-  const cuts = CUT;
-  cuts.length = 0;
-  cuts.push(a, b);
-  for (let i = 0; i < n; i++) if (poly[i][0] > a && poly[i][0] < b) cuts.push(poly[i][0]);
-  sortSmall(cuts);
-  // Trapezoids, slab by slab (a slab's trapezoids are consecutive; SLAB_START marks where each begins).
-  let nt = 0;
-  const slabStart = SLAB_START;
-  slabStart.length = 0;
-  for (let k = 0; k + 1 < cuts.length; k++) {
-    const s0 = cuts[k];
-    const s1 = cuts[k + 1];
-    if (s1 - s0 <= 1e-12) continue;
-    const sm = (s0 + s1) / 2;
-    let nx = 0;
-    for (let i = 0; i < n; i++) {
-      const p = poly[i];
-      const q = poly[(i + 1) % n];
-      if (p[0] > sm !== q[0] > sm) {
-        const m = (q[1] - p[1]) / (q[0] - p[0]);
-        const vm = p[1] + (sm - p[0]) * m;
-        const v0 = p[1] + (s0 - p[0]) * m;
-        const v1 = p[1] + (s1 - p[0]) * m;
-        // insertion by vm (a handful of crossings)
-        let j = nx - 1;
-        while (j >= 0 && X_VM[j] > vm) {
-          X_VM[j + 1] = X_VM[j];
-          X_V0[j + 1] = X_V0[j];
-          X_V1[j + 1] = X_V1[j];
-          X_E[j + 1] = X_E[j];
-          j--;
-        }
-        X_VM[j + 1] = vm;
-        X_V0[j + 1] = v0;
-        X_V1[j + 1] = v1;
-        X_E[j + 1] = i;
-        nx++;
-      }
-    }
-    slabStart.push(nt);
-    ensureTraps(nt + (nx >> 1) + 1);
-    for (let i = 0; i + 1 < nx; i += 2) {
-      T_S0[nt] = s0;
-      T_S1[nt] = s1;
-      T_LO0[nt] = X_V0[i];
-      T_LO1[nt] = X_V1[i];
-      T_HI0[nt] = X_V0[i + 1];
-      T_HI1[nt] = X_V1[i + 1];
-      T_LOE[nt] = X_E[i];
-      T_HIE[nt] = X_E[i + 1];
-      T_PARENT[nt] = nt;
-      nt++;
-    }
-  }
-  slabStart.push(nt);
-  // Union-find over trapezoids of neighbouring slabs that touch along their shared line.
-  const ns = slabStart.length - 1;
-  for (let k = 0; k + 1 < ns; k++) {
-    const l0 = slabStart[k];
-    const l1 = slabStart[k + 1];
-    const r1 = slabStart[k + 2];
-    if (l0 === l1 || l1 === r1) continue;
-    if (Math.abs(T_S1[l0] - T_S0[l1]) > 1e-12) continue;
-    for (let i = l0; i < l1; i++) {
-      for (let j = l1; j < r1; j++) {
-        if (Math.max(T_LO1[i], T_LO0[j]) < Math.min(T_HI1[i], T_HI0[j]) - 1e-9) {
-          let x = i;
-          while (T_PARENT[x] !== x) x = T_PARENT[x];
-          let y = j;
-          while (T_PARENT[y] !== y) y = T_PARENT[y];
-          T_PARENT[x] = y;
-        }
-      }
-    }
-  }
-  // Each piece's extent, by its root.
-  for (let i = 0; i < nt; i++) {
-    let r = i;
-    while (T_PARENT[r] !== r) r = T_PARENT[r];
-    T_PARENT[i] = r;
-  }
-  for (let i = 0; i < nt; i++) {
-    if (T_PARENT[i] !== i) continue;
-    G_S0[i] = Infinity;
-    G_S1[i] = -Infinity;
-    G_V0[i] = Infinity;
-    G_V1[i] = -Infinity;
-    G_BOT[i] = -1;
-    G_TOP[i] = -1;
-    G_COL[i] = 0;
-  }
-  for (let i = 0; i < nt; i++) {
-    const r = T_PARENT[i];
-    if (T_S0[i] < G_S0[r]) G_S0[r] = T_S0[i];
-    if (T_S1[i] > G_S1[r]) G_S1[r] = T_S1[i];
-    const lo = T_LO0[i] < T_LO1[i] ? T_LO0[i] : T_LO1[i];
-    const hi = T_HI0[i] > T_HI1[i] ? T_HI0[i] : T_HI1[i];
-    if (lo < G_V0[r]) G_V0[r] = lo;
-    if (hi > G_V1[r]) G_V1[r] = hi;
-  }
-  // The probe column: trapezoids containing the piece's middle (or all of the piece when none does).
-  for (let i = 0; i < nt; i++) {
-    const r = T_PARENT[i];
-    const sMid = (G_S0[r] + G_S1[r]) / 2;
-    if (T_S0[i] <= sMid && sMid <= T_S1[i]) G_COL[r] = 1;
-  }
-  for (let i = 0; i < nt; i++) {
-    const r = T_PARENT[i];
-    if (G_COL[r]) {
-      const sMid = (G_S0[r] + G_S1[r]) / 2;
-      if (!(T_S0[i] <= sMid && sMid <= T_S1[i])) continue;
-    }
-    const bot = G_BOT[r];
-    if (bot < 0 || T_LO0[i] + T_LO1[i] < T_LO0[bot] + T_LO1[bot]) G_BOT[r] = i;
-    const top = G_TOP[r];
-    if (top < 0 || T_HI0[i] + T_HI1[i] > T_HI0[top] + T_HI1[top]) G_TOP[r] = i;
-  }
+  const count = s.slice(a, b);
   const out: StripComponent[] = [];
-  for (let i = 0; i < nt; i++) {
-    if (T_PARENT[i] !== i) continue;
-    const bottom = G_BOT[i];
-    const sMid = (G_S0[i] + G_S1[i]) / 2;
-    out.push({
-      sMin: G_S0[i],
-      sMax: G_S1[i],
-      vMin: G_V0[i],
-      vMax: G_V1[i],
-      bottomEdge: T_LOE[bottom],
-      topEdge: T_HIE[G_TOP[i]],
-      sProbe: Math.min(Math.max(sMid, T_S0[bottom]), T_S1[bottom]),
-    });
+  for (let i = 0; i < count; i++) {
+    const p = s.pieces[i];
+    out.push({ sMin: p.sMin, sMax: p.sMax, vMin: p.vMin, vMax: p.vMax, bottomEdge: p.bottomEdge, topEdge: p.topEdge, sProbe: p.sProbe });
   }
-  if (out.length > 1) out.sort((p, q) => p.vMin - q.vMin || p.sMin - q.sMin);
   return out;
 }
 
@@ -384,73 +591,10 @@ export function isConvex(poly: readonly Pt[]): boolean {
 /**
  * The strip's piece of a convex polygon (at most one): its v range is reached at the strip's sides or at
  * corners inside the strip. The same result as the general slab method, without its allocations.
+ * Written into `into` when given, else a new object; see StripSlicer.convex.
  */
 export function convexStripComponent(poly: readonly Pt[], a: number, b: number, into?: StripComponent): StripComponent | null {
-  const n = poly.length;
-  let sMinP = Infinity;
-  let sMaxP = -Infinity;
-  for (let i = 0; i < n; i++) {
-    if (poly[i][0] < sMinP) sMinP = poly[i][0];
-    if (poly[i][0] > sMaxP) sMaxP = poly[i][0];
-  }
-  const s0 = Math.max(a, sMinP);
-  const s1 = Math.min(b, sMaxP);
-  if (!(s1 - s0 > 1e-12)) return null;
-  let vMin = Infinity;
-  let vMax = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const p = poly[i];
-    if (p[0] >= s0 && p[0] <= s1) {
-      if (p[1] < vMin) vMin = p[1];
-      if (p[1] > vMax) vMax = p[1];
-    }
-  }
-  const sMid = (s0 + s1) / 2;
-  let bottomEdge = -1;
-  let topEdge = -1;
-  let vb = Infinity;
-  let vt = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const p = poly[i];
-    const q = poly[(i + 1) % n];
-    const lo = p[0] < q[0] ? p[0] : q[0];
-    const hi = p[0] < q[0] ? q[0] : p[0];
-    if (hi - lo < 1e-12) continue;
-    const m = (q[1] - p[1]) / (q[0] - p[0]);
-    // The edge's v at the strip sides it spans.
-    for (let k = 0; k < 2; k++) {
-      const s = k ? s1 : s0;
-      if (s >= lo - 1e-12 && s <= hi + 1e-12) {
-        const v = p[1] + (s - p[0]) * m;
-        if (v < vMin) vMin = v;
-        if (v > vMax) vMax = v;
-      }
-    }
-    // Inclusive: at a corner both edges meeting there give the same v; the first one is kept.
-    if (sMid >= lo - 1e-12 && sMid <= hi + 1e-12) {
-      const v = p[1] + (sMid - p[0]) * m;
-      if (v < vb) {
-        vb = v;
-        bottomEdge = i;
-      }
-      if (v > vt) {
-        vt = v;
-        topEdge = i;
-      }
-    }
-  }
-  if (bottomEdge < 0 || topEdge < 0) return null;
-  if (into) {
-    into.sMin = s0;
-    into.sMax = s1;
-    into.vMin = vMin;
-    into.vMax = vMax;
-    into.bottomEdge = bottomEdge;
-    into.topEdge = topEdge;
-    into.sProbe = sMid;
-    return into;
-  }
-  return { sMin: s0, sMax: s1, vMin, vMax, bottomEdge, topEdge, sProbe: sMid };
+  return ONE_STRIP.load(poly).convex(a, b, into);
 }
 
 /** Bounding box of plan points as [minX, minY, maxX, maxY]: alias kept for PlanPoint callers. */
