@@ -81,89 +81,132 @@ export function heightAt(g: Pick<PlaneGeometry, "origin" | "up" | "baseElevation
 }
 
 /**
- * Geometry of one plane, or the reason it cannot be a roof plane with the input path to blame.
- * `path` is relative to the input root, e.g. ["planes", 2, "outline"].
- */
-/**
  * The takeoff's input check and the takeoff itself both need each plane's geometry, for the same freshly
- * parsed plane object: this remembers it per object (and index) so it is worked out once. Only for objects
+ * parsed plane object: this remembers it per object and index so it is worked out once. Only for objects
  * nobody changes afterwards (schema output); anything else calls `planeGeometry`.
+ *
+ * The memo is one slot per plane index holding the last object seen there (a hit needs that very object).
+ * It used to be a WeakMap keyed by the plane objects, but every takeoff adds a hundred short-lived keys,
+ * and V8 makes a weak key costly to add and to collect (an ephemeron), several times the cost of working
+ * the geometry out. The slots keep the last roof's planes alive until the next roof replaces them; a new
+ * roof's plane 0 clears them, so a large roof followed by small ones is not kept either.
  */
-const parsedGeometry = new WeakMap<object, { index: number; g: PlaneGeometry | GeometryError }>();
+const memoPlane: PlaneShapeInput[] = [];
+const memoGeometry: (PlaneGeometry | GeometryError)[] = [];
 
 export function planeGeometryOfParsed(plane: PlaneShapeInput, index: number): PlaneGeometry | GeometryError {
-  const hit = parsedGeometry.get(plane);
-  if (hit && hit.index === index) return hit.g;
+  if (index < memoPlane.length && memoPlane[index] === plane) return memoGeometry[index];
   const g = planeGeometry(plane, index);
-  parsedGeometry.set(plane, { index, g });
+  // A roof's planes come in order from 0: plane 0 drops the last roof's, then each one takes the next
+  // slot (a plane out of that order is simply not remembered).
+  if (index === 0) {
+    memoPlane.length = 0;
+    memoGeometry.length = 0;
+  }
+  if (index < memoPlane.length) {
+    memoPlane[index] = plane;
+    memoGeometry[index] = g;
+  } else if (index === memoPlane.length) {
+    memoPlane.push(plane);
+    memoGeometry.push(g);
+  }
   return g;
 }
 
+/**
+ * Math.hypot(x, y), answering the common case of a zero leg (axis-aligned or level edges) directly: the
+ * builtin is a comparatively slow call, and with one leg zero its result is exactly |other leg| (also for
+ * −0, NaN and ±∞), so the value is the same number either way.
+ */
+export function hypot2(x: number, y: number): number {
+  if (y === 0) return Math.abs(x);
+  if (x === 0) return Math.abs(y);
+  return Math.hypot(x, y);
+}
+
+/** slopeFactor of the last pitch asked for: a roof's planes mostly share a few pitches (one per building). */
+let lastPitch = NaN;
+let lastSlopeFactor = NaN;
+function slopeFactorOf(pitch: number): number {
+  if (pitch !== lastPitch) {
+    lastSlopeFactor = slopeFactor(pitch);
+    lastPitch = pitch;
+  }
+  return lastSlopeFactor;
+}
+
+const fail = (reason: string, path: (string | number)[]): GeometryError => ({ ok: false, reason, path });
+const NO_AREA = "The outline has no area (its corners are on one line)";
+
+/**
+ * Geometry of one plane, or the reason it cannot be a roof plane with the input path to blame.
+ * `path` is relative to the input root, e.g. ["planes", 2, "outline"].
+ */
 export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeometry | GeometryError {
-  const base = ["planes", index] as (string | number)[];
-  const outline: Pt[] = plane.outline.map((p) => [p[0], p[1]] as const);
-  const n = outline.length;
-  if (n < 3) return { ok: false, reason: "A roof plane needs at least 3 corners", path: [...base, "outline"] };
+  const src = plane.outline;
+  const n = src.length;
+  const outline: Pt[] = [];
+  for (let i = 0; i < n; i++) outline.push([src[i][0], src[i][1]]);
+  if (n < 3) return fail("A roof plane needs at least 3 corners", ["planes", index, "outline"]);
   for (let i = 0; i < n; i++) {
-    const [x, y] = outline[i];
-    if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      return { ok: false, reason: "Corner coordinates must be finite numbers", path: [...base, "outline", i] };
+    if (!Number.isFinite(outline[i][0]) || !Number.isFinite(outline[i][1])) {
+      return fail("Corner coordinates must be finite numbers", ["planes", index, "outline", i]);
     }
   }
-  if (!Number.isFinite(plane.pitch) || plane.pitch < 0 || plane.pitch > 24) {
-    return { ok: false, reason: "Pitch must be between 0 and 24 (rise per 12 of run)", path: [...base, "pitch"] };
+  const pitch = plane.pitch;
+  if (!Number.isFinite(pitch) || pitch < 0 || pitch > 24) {
+    return fail("Pitch must be between 0 and 24 (rise per 12 of run)", ["planes", index, "pitch"]);
   }
   const area = signedArea(outline);
-  const noArea = { ok: false as const, reason: "The outline has no area (its corners are on one line)", path: [...base, "outline"] };
-  if (allCollinear(outline)) return noArea;
+  if (allCollinear(outline)) return fail(NO_AREA, ["planes", index, "outline"]);
   const bad = selfIntersection(outline);
   if (bad) {
-    return {
-      ok: false,
-      reason:
-        bad.i === bad.j
-          ? `Corners ${bad.i} and ${(bad.i + 1) % n} are at the same point`
-          : `The outline crosses itself (edges ${bad.i} and ${bad.j})`,
-      path: [...base, "outline"],
-    };
+    return fail(
+      bad.i === bad.j ? `Corners ${bad.i} and ${(bad.i + 1) % n} are at the same point` : `The outline crosses itself (edges ${bad.i} and ${bad.j})`,
+      ["planes", index, "outline"],
+    );
   }
-  if (Math.abs(area) <= TOL * TOL) return noArea;
-  if (!Number.isInteger(plane.eaveEdge) || plane.eaveEdge < 0 || plane.eaveEdge >= n) {
-    return { ok: false, reason: `The eave edge must be an edge number from 0 to ${n - 1}`, path: [...base, "eaveEdge"] };
+  if (Math.abs(area) <= TOL * TOL) return fail(NO_AREA, ["planes", index, "outline"]);
+  const eaveEdge = plane.eaveEdge;
+  if (!Number.isInteger(eaveEdge) || eaveEdge < 0 || eaveEdge >= n) {
+    return fail(`The eave edge must be an edge number from 0 to ${n - 1}`, ["planes", index, "eaveEdge"]);
   }
   const winding = area > 0 ? "ccw" : "cw";
-  const a = outline[plane.eaveEdge];
-  const b = outline[(plane.eaveEdge + 1) % n];
-  const len = Math.hypot(b[0] - a[0], b[1] - a[1]);
-  if (len <= TOL) return { ok: false, reason: "The eave edge has no length", path: [...base, "eaveEdge"] };
-  const d: Pt = [(b[0] - a[0]) / len, (b[1] - a[1]) / len];
+  const a = outline[eaveEdge];
+  const b = outline[(eaveEdge + 1) % n];
+  const len = hypot2(b[0] - a[0], b[1] - a[1]);
+  if (len <= TOL) return fail("The eave edge has no length", ["planes", index, "eaveEdge"]);
+  const d0 = (b[0] - a[0]) / len;
+  const d1 = (b[1] - a[1]) / len;
   // Interior is on the left of each edge for a counter-clockwise polygon, on the right for clockwise.
-  const up: Pt = winding === "ccw" ? [-d[1], d[0]] : [d[1], -d[0]];
+  const up: Pt = winding === "ccw" ? [-d1, d0] : [d1, -d0];
   // Right of someone at the eave looking up-slope: `up` turned a quarter turn clockwise.
   const right: Pt = [up[1], -up[0]];
-  const g0 = { origin: a, up, right };
-  const local = outline.map((p) => toLocal(g0, p));
+  // Local (s, v) of each corner (as toLocal), rejecting corners below the eave line.
+  const ox = a[0], oy = a[1], ux = up[0], uy = up[1], rx = right[0], ry = right[1];
+  const local: Pt[] = [];
   for (let i = 0; i < n; i++) {
-    if (local[i][1] < -TOL) {
-      return {
-        ok: false,
-        reason: `Corner ${i} is below the eave line (${(-local[i][1]).toFixed(2)} ft on the outside of the eave)`,
-        path: [...base, "outline", i],
-      };
+    const dx = outline[i][0] - ox;
+    const dy = outline[i][1] - oy;
+    const v = dx * ux + dy * uy;
+    if (v < -TOL) {
+      return fail(`Corner ${i} is below the eave line (${(-v).toFixed(2)} ft on the outside of the eave)`, ["planes", index, "outline", i]);
     }
+    local.push([dx * rx + dy * ry, v]);
   }
-  const k = slopeFactor(plane.pitch);
+  const k = slopeFactorOf(pitch);
   const baseElevationFt = plane.baseElevationFt ?? 0;
-  const heights = local.map(([, v]) => baseElevationFt + (v * plane.pitch) / 12);
+  const heights: number[] = [];
+  for (let i = 0; i < n; i++) heights.push(baseElevationFt + (local[i][1] * pitch) / 12);
   const edges: PlaneEdgeGeometry[] = [];
   let sMin = Infinity, sMax = -Infinity, vMax = 0;
   for (let i = 0; i < n; i++) {
-    const j = (i + 1) % n;
+    const j = i + 1 === n ? 0 : i + 1;
     const p = outline[i];
     const q = outline[j];
-    const plan = Math.hypot(q[0] - p[0], q[1] - p[1]);
+    const plan = hypot2(q[0] - p[0], q[1] - p[1]);
     const dz = heights[j] - heights[i];
-    edges.push({ index: i, from: p, to: q, planLengthFt: plan, trueLengthFt: Math.hypot(plan, dz), z0: heights[i], z1: heights[j] });
+    edges.push({ index: i, from: p, to: q, planLengthFt: plan, trueLengthFt: hypot2(plan, dz), z0: heights[i], z1: heights[j] });
     sMin = Math.min(sMin, local[i][0]);
     sMax = Math.max(sMax, local[i][0]);
     vMax = Math.max(vMax, local[i][1]);
@@ -173,7 +216,7 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
   return {
     id: plane.id,
     index,
-    pitch: plane.pitch,
+    pitch,
     slopeFactor: k,
     outline,
     winding,
@@ -181,7 +224,7 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
     slopedAreaSqFt,
     squares: slopedAreaSqFt / 100,
     baseElevationFt,
-    eaveEdge: plane.eaveEdge,
+    eaveEdge,
     origin: a,
     up,
     right,
@@ -196,20 +239,33 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
 
 /** True when every corner lies within TOL of the line through the two corners farthest apart. */
 function allCollinear(pts: Pt[]): boolean {
+  const n = pts.length;
   let a = pts[0];
   let b = pts[1];
+  // The farthest pair, first found on ties. Squared distances rule out most pairs without a square root
+  // (√ is monotonic, so d² ≤ best² means d ≤ best); the root is still compared so ties go as before.
   let best = -1;
-  for (let i = 0; i < pts.length; i++)
-    for (let j = i + 1; j < pts.length; j++) {
-      const d = Math.sqrt((pts[j][0] - pts[i][0]) ** 2 + (pts[j][1] - pts[i][1]) ** 2);
+  let best2 = -1;
+  for (let i = 0; i < n; i++) {
+    const xi = pts[i][0], yi = pts[i][1];
+    for (let j = i + 1; j < n; j++) {
+      const ex = pts[j][0] - xi;
+      const ey = pts[j][1] - yi;
+      const d2 = ex * ex + ey * ey;
+      if (d2 <= best2) continue;
+      const d = Math.sqrt(d2);
       if (d > best) {
         best = d;
+        best2 = d2;
         a = pts[i];
         b = pts[j];
       }
     }
+  }
   if (best <= TOL) return true;
-  return pts.every((p) => Math.abs((p[0] - a[0]) * (b[1] - a[1]) - (p[1] - a[1]) * (b[0] - a[0])) / best <= TOL);
+  const bx = b[0] - a[0], by = b[1] - a[1];
+  for (let i = 0; i < n; i++) if (!(Math.abs((pts[i][0] - a[0]) * by - (pts[i][1] - a[1]) * bx) / best <= TOL)) return false;
+  return true;
 }
 
 export const isGeometryError = (g: PlaneGeometry | GeometryError): g is GeometryError => (g as GeometryError).ok === false;
