@@ -228,14 +228,38 @@ const edgeTypeOverrides = z
   .record(z.string().regex(/^\d+$/, "Edge numbers are whole numbers"), z.enum(EDGE_TYPES))
   .refine((r) => Object.keys(r).length <= 200, { message: "At most 200 edges" }); // a plane has at most 200 corners
 
+/**
+ * A plane's outline: 3 to 200 corners, each a pair [x, y] of plan feet within ±MAX_PLAN_FT. The corners are
+ * checked in one pass over the array rather than as a zod tuple per corner: a 100-plane roof has about 500
+ * corners, and a tuple schema builds several objects per corner on every takeoff and every roof save. The
+ * issues are those the per-field schemas give (the same paths down to the coordinate, the same messages), and
+ * like a type error they stop the roof's cross-checks, which need whole corners.
+ */
+const outlineSchema = z
+  .array(z.unknown(), { error: "Required" })
+  .min(3, "A plane needs at least 3 corners")
+  .max(200, "At most 200 corners")
+  .superRefine((corners, ctx) => {
+    for (let i = 0; i < corners.length; i++) {
+      const c = corners[i];
+      if (!Array.isArray(c) || c.length !== 2) {
+        ctx.addIssue({ code: "custom", message: "Each corner is a pair of numbers [x, y] in feet", path: [i], continue: false });
+        continue;
+      }
+      for (let k = 0; k < 2; k++) {
+        const v: unknown = c[k];
+        if (typeof v !== "number" || !Number.isFinite(v)) ctx.addIssue({ code: "custom", message: "Enter a number", path: [i, k], continue: false });
+        else if (v < -MAX_PLAN_FT) ctx.addIssue({ code: "custom", message: `At least -${MAX_PLAN_FT} ft`, path: [i, k], continue: false });
+        else if (v > MAX_PLAN_FT) ctx.addIssue({ code: "custom", message: `At most ${MAX_PLAN_FT} ft`, path: [i, k], continue: false });
+      }
+    }
+  }) as unknown as z.ZodType<[number, number][], [number, number][]>;
+
 export const planeSchema = z.object({
   id,
   name: z.string().max(120).default(""),
   pitch: z.number({ error: "Enter a number" }).min(0, "Pitch must be 0 or more").max(24, "Pitch must be at most 24"),
-  outline: z
-    .array(z.tuple([planFt, planFt]), { error: "Required" })
-    .min(3, "A plane needs at least 3 corners")
-    .max(200, "At most 200 corners"),
+  outline: outlineSchema,
   eaveEdge: z.number({ error: "Enter a number" }).int("Must be a whole number").min(0, "Must be 0 or more"),
   baseElevationFt: z.number({ error: "Enter a number" }).default(0),
   eaveOverhangIn: size.default(12),
