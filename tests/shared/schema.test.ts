@@ -57,6 +57,10 @@ describe("bad input → field paths (the route answers 400)", () => {
     ["a vertex below the eave line", (b: ReturnType<typeof base>) => (b.planes[0].outline = [[0, 0], [20, 0], [20, 10], [0, 10], [-2, -3]]), "planes.0.outline.4"],
     ["NaN in a coordinate", (b: ReturnType<typeof base>) => ((b.planes[0].outline as number[][])[1][0] = NaN), "planes.0.outline.1.0"],
     ["Infinity in a coordinate", (b: ReturnType<typeof base>) => ((b.planes[0].outline as number[][])[2][1] = Infinity), "planes.0.outline.2.1"],
+    ["a coordinate as a string", (b: ReturnType<typeof base>) => ((b.planes[0].outline as unknown[][])[1][1] = "10"), "planes.0.outline.1.1"],
+    ["a coordinate beyond 1,000 ft", (b: ReturnType<typeof base>) => ((b.planes[0].outline as number[][])[2][0] = 1200), "planes.0.outline.2.0"],
+    ["a corner with one number", (b: ReturnType<typeof base>) => ((b.planes[0].outline as unknown[])[1] = [20]), "planes.0.outline.1"],
+    ["a corner as an object", (b: ReturnType<typeof base>) => ((b.planes[0].outline as unknown[])[3] = { x: 0, y: 10 }), "planes.0.outline.3"],
     ["a negative size", (b: ReturnType<typeof base>) => (b.planes[0].eaveOverhangIn = -1), "planes.0.eaveOverhangIn"],
     ["a negative coverage width", (b: ReturnType<typeof base>) => (b.stacks[0].panel = { coverageWidthIn: -16 }), "stacks.0.panel.coverageWidthIn"],
     ["gauge as a string", (b: ReturnType<typeof base>) => (b.stacks[0].panel = { gauge: "24" }), "stacks.0.panel.gauge"],
@@ -79,6 +83,24 @@ describe("bad input → field paths (the route answers 400)", () => {
       expect(out.fields).toHaveProperty([path]);
       expect(out.reason.length).toBeGreaterThan(3);
     }
+  });
+
+  it("says what is wrong with a corner, and skips the roof's cross-checks until the corners are whole", () => {
+    const issuesOf = (outline: unknown[]) => {
+      const b = base();
+      b.planes[0].outline = outline as number[][];
+      const res = takeoffInputSchema.safeParse(b);
+      return res.success ? [] : res.error.issues.map((i) => [i.path.join("."), i.message]);
+    };
+    expect(issuesOf([[0, 0], [20], [20, 10], [0, 10]])).toEqual([["planes.0.outline.1", "Each corner is a pair of numbers [x, y] in feet"]]);
+    expect(issuesOf([[0, 0], [20, 0, 5], [20, 10], [0, 10]])).toEqual([["planes.0.outline.1", "Each corner is a pair of numbers [x, y] in feet"]]);
+    expect(issuesOf([[0, 0], [20, "0"], [20, 10], [0, 10]])).toEqual([["planes.0.outline.1.1", "Enter a number"]]);
+    expect(issuesOf([[0, 0], [20, 0], [20, 1001], [-1001, 10]])).toEqual([
+      ["planes.0.outline.2.1", "At most 1000 ft"],
+      ["planes.0.outline.3.0", "At least -1000 ft"],
+    ]);
+    // A whole, in-range outline still gets the geometric checks (here: it crosses itself).
+    expect(issuesOf([[0, 0], [10, 10], [10, 0], [0, 10]])).toEqual([["planes.0.outline", "The outline crosses itself (edges 0 and 2)"]]);
   });
 
   it("reports each problem once (the geometric checks do not repeat a field's own error)", () => {
