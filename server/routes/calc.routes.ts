@@ -1,6 +1,7 @@
 import { Router } from "express";
-import { computeTakeoff } from "../../shared/engine/takeoff";
+import { computeTakeoff, computeTakeoffQuantities } from "../../shared/engine/takeoff";
 import { computeGapStudy } from "../../shared/engine/gap-study";
+import { calcQuerySchema } from "../../shared/schemas/takeoff";
 import { HttpError } from "../errors";
 import { requireAuth } from "../middleware/require-auth";
 import { requireBody } from "./auth.routes";
@@ -15,14 +16,17 @@ export function engineRefusal(r: Refusal): HttpError {
 
 /**
  * Stateless calculations for previews and integrations: the same engine the stored jobs use.
- * Any signed-in role may call them; the results hold quantities, never prices.
+ * Any signed-in role may call them; the results hold quantities, never prices. Each plane carries its
+ * quantities unless `?detail=full` asks for its whole detail (the roof-wide figures are the same either way).
  */
 export function calcRouter(): Router {
   const router = Router();
   router.use(requireAuth);
 
   router.post("/takeoff", (req, res) => {
-    const outcome = computeTakeoff(requireBody(req));
+    const { detail } = calcQuerySchema.parse(req.query);
+    const body = requireBody(req);
+    const outcome = detail === "full" ? computeTakeoff(body) : computeTakeoffQuantities(body);
     if (!outcome.ok) throw engineRefusal(outcome);
     res.json({ data: outcome.result });
   });
@@ -33,7 +37,8 @@ export function calcRouter(): Router {
   });
 
   router.post("/gap-study", (req, res) => {
-    const outcome = computeGapStudy(requireBody(req));
+    const { detail } = calcQuerySchema.parse(req.query);
+    const outcome = computeGapStudy(requireBody(req), detail);
     if (!outcome.ok) throw engineRefusal(outcome);
     res.json({ data: { options: outcome.options } });
   });

@@ -6,9 +6,9 @@
  */
 import { gapStudyInputSchema, type GapStudyInput, type StackInput } from "../schemas/takeoff";
 import type { Advisory } from "./advisory";
-import { computeTakeoffParsed, refusalFromZod } from "./takeoff";
+import { computeTakeoffParsed, refusalFromZod, type TakeoffDetail, type TakeoffOutcome } from "./takeoff";
 import type { MaterialLine } from "./materials";
-import type { TakeoffResult } from "./types";
+import type { PlaneQuantities, PlaneResult, TakeoffResult } from "./types";
 import { applySpacerAndFoil, SPACER_OPTIONS } from "./stack-options";
 
 export const GAP_STUDY_OPTIONS = SPACER_OPTIONS;
@@ -30,27 +30,31 @@ export interface GapStudySummary {
   advisories: Advisory[];
 }
 
-export interface GapStudyOptionResult {
+export interface GapStudyOptionResult<P extends PlaneQuantities = PlaneResult> {
   spacer: GapStudyOption;
   summary: GapStudySummary;
-  result: TakeoffResult;
+  result: TakeoffResult<P>;
 }
 
-export type GapStudyOutcome =
-  | { ok: true; options: GapStudyOptionResult[] }
+export type GapStudyOutcome<P extends PlaneQuantities = PlaneResult> =
+  | { ok: true; options: GapStudyOptionResult<P>[] }
   | { ok: false; reason: string; path: (string | number)[]; fields?: Record<string, string> };
 
 const withSpacer = (stack: StackInput, option: GapStudyOption): StackInput => applySpacerAndFoil(stack, { spacer: option });
 
 const SPACER_KEYS = /^(spacer-|batten-|counter-batten-|screw-batten$)/;
 
-export function computeGapStudyParsed(input: GapStudyInput): GapStudyOutcome {
-  const options: GapStudyOptionResult[] = [];
+/** The five options; `detail` as in the takeoff (default "full": each plane's whole detail). */
+export function computeGapStudyParsed(input: GapStudyInput, detail?: "full"): GapStudyOutcome;
+export function computeGapStudyParsed(input: GapStudyInput, detail: TakeoffDetail): GapStudyOutcome<PlaneResult | PlaneQuantities>;
+export function computeGapStudyParsed(input: GapStudyInput, detail: TakeoffDetail = "full"): GapStudyOutcome<PlaneResult | PlaneQuantities> {
+  const options: GapStudyOptionResult<PlaneResult | PlaneQuantities>[] = [];
   const chosen = new Set(input.planeIds);
   const usedStacks = new Set(input.planes.filter((p) => chosen.has(p.id)).map((p) => p.stackId ?? input.defaultStackId));
   for (const option of GAP_STUDY_OPTIONS) {
     const stacks = input.stacks.map((s) => (usedStacks.has(s.id) ? withSpacer(s, option) : s));
-    const out = computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds });
+    const out: TakeoffOutcome<TakeoffResult<PlaneResult | PlaneQuantities>> =
+      detail === "full" ? computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds }) : computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds, detail });
     if (!out.ok) return out;
     const r = out.result;
     const main = r.stacks.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt ? s : m), r.stacks[0]);
@@ -77,8 +81,10 @@ export function computeGapStudyParsed(input: GapStudyInput): GapStudyOutcome {
 }
 
 /** Parse with the schema (takeoff input + planeIds), then run the five options. */
-export function computeGapStudy(input: unknown): GapStudyOutcome {
+export function computeGapStudy(input: unknown, detail?: "full"): GapStudyOutcome;
+export function computeGapStudy(input: unknown, detail: TakeoffDetail): GapStudyOutcome<PlaneResult | PlaneQuantities>;
+export function computeGapStudy(input: unknown, detail: TakeoffDetail = "full"): GapStudyOutcome<PlaneResult | PlaneQuantities> {
   const parsed = gapStudyInputSchema.safeParse(input);
   if (!parsed.success) return refusalFromZod(parsed.error);
-  return computeGapStudyParsed(parsed.data);
+  return computeGapStudyParsed(parsed.data, detail);
 }

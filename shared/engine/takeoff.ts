@@ -39,7 +39,7 @@ import { layoutPanels, PanelPieces } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
 import { computeThermal, foilFacesGap } from "./thermal/index";
 import { countTrimRuns, TRIM_KEY_BY_EDGE, type TrimRunCount } from "./trim";
-import type { FastenersResult, PlaneResult, StackResult, TakeoffOutcome, TakeoffResult, ZoneFasteners } from "./types";
+import type { EdgeQuantities, FastenersResult, PlaneQuantities, PlaneResult, StackResult, TakeoffOutcome, TakeoffQuantities, TakeoffResult, ZoneFasteners } from "./types";
 import { aboveDeckChannel, type ChannelResult } from "./ventilation/channel";
 import { climateZoneNumber, computeVentilation } from "./ventilation/index";
 import {
@@ -55,7 +55,7 @@ import {
   type ZoneModel,
 } from "./wind/zones";
 
-export type { TakeoffOutcome, TakeoffResult };
+export type { TakeoffOutcome, TakeoffResult, TakeoffQuantities };
 
 /** Turn a zod error into the engine's refusal: the first issue's message and path, and every field. */
 export function refusalFromZod(error: z.ZodError): Extract<TakeoffOutcome, { ok: false }> {
@@ -75,9 +75,25 @@ export function computeTakeoff(input: unknown): TakeoffOutcome {
   return computeTakeoffParsed(parsed.data);
 }
 
+/**
+ * The same takeoff with each plane's quantities only (areas, squares, typed edges and their lengths, panels and
+ * the cut list): every roof-wide figure is the same as computeTakeoff's, and none of the per-plane detail for
+ * drawing (corner heights, where each edge piece lies, wind zones and layers per plane) is built.
+ */
+export function computeTakeoffQuantities(input: unknown): TakeoffOutcome<TakeoffQuantities> {
+  const parsed = takeoffInputSchema.safeParse(input);
+  if (!parsed.success) return refusalFromZod(parsed.error);
+  return computeTakeoffParsed(parsed.data, { detail: "quantities" });
+}
+
+/** "full": each plane's whole detail (PlaneResult); "quantities": its quantities only (PlaneQuantities). */
+export type TakeoffDetail = "full" | "quantities";
+
 export interface TakeoffOptions {
   /** Compute only these planes (edges are still typed against every plane of the roof). */
   planeIds?: readonly string[];
+  /** What each plane's entry holds; default "full". */
+  detail?: TakeoffDetail;
 }
 
 /** The distinct values of a list, in first-seen order. */
@@ -166,6 +182,12 @@ function singlePieceTypes(g: PlaneGeometry, pieces: EdgePiece[]): (EdgeType | nu
 /** What the per-plane passes add up across the job (rounded once, in the materials). */
 interface JobSums {
   longestByPlane: Map<number, number>;
+  /** The roof's totals, added plane by plane in plane order. */
+  slopedAreaSqFt: number;
+  squares: number;
+  panelCount: number;
+  panelLengthFt: number;
+  offcutSqFt: number;
   zones: Record<WindZone, ZoneFasteners>;
   clips: number;
   clipScrews: number;
@@ -192,6 +214,11 @@ interface JobSums {
 
 const newJobSums = (): JobSums => ({
   longestByPlane: new Map(),
+  slopedAreaSqFt: 0,
+  squares: 0,
+  panelCount: 0,
+  panelLengthFt: 0,
+  offcutSqFt: 0,
   zones: { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() },
   clips: 0,
   clipScrews: 0,
@@ -228,10 +255,11 @@ interface RoofContext {
   hipRoof: boolean;
   panelScratch: PanelPieces;
   channelOf: (s: StackInput) => ChannelResult;
+  detail: TakeoffDetail;
 }
 
 /** One plane's takeoff; its quantities are also added to the job's sums. */
-function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult {
+function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult | PlaneQuantities {
   const { input, geoms, planeStacks, ed, h, hipRoof } = ctx;
   const { site, rules } = input;
   const screwsPerClip = rules.clips.screwsPerClip;
@@ -247,6 +275,11 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult {
     into: ctx.panelScratch,
   });
   sums.longestByPlane.set(i, panels.longestIn);
+  sums.slopedAreaSqFt += g.slopedAreaSqFt;
+  sums.squares += g.squares;
+  sums.panelCount += panels.count;
+  sums.panelLengthFt += panels.totalLengthFt;
+  sums.offcutSqFt += panels.offcutSqFt;
   const pKey: MaterialKey = panelOpts.system === "standing-seam" ? "panel-standing-seam" : "panel-exposed-fastener";
   const pl = sums.panelLf.get(pKey) ?? { lf: 0, count: 0 };
   pl.lf += panels.totalLengthFt;
@@ -370,6 +403,22 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult {
 
   for (const pen of plane.penetrations) sums.penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
 
+  if (ctx.detail === "quantities") {
+    const edges: EdgeQuantities[] = [];
+    for (const pc of pieces) edges.push({ index: pc.edgeIndex, type: pc.type, planLengthFt: pc.planLengthFt, trueLengthFt: pc.trueLengthFt });
+    return {
+      id: g.id,
+      name: plane.name,
+      stackId: stack.id,
+      pitch: g.pitch,
+      slopeFactor: g.slopeFactor,
+      planAreaSqFt: g.planAreaSqFt,
+      slopedAreaSqFt: g.slopedAreaSqFt,
+      squares: g.squares,
+      edges,
+      panels: { count: panels.count, lengthsIn: panels.lengthsIn, cutList: panels.cutList, longestIn: panels.longestIn },
+    };
+  }
   return {
     id: g.id,
     name: plane.name,
@@ -655,7 +704,9 @@ function materialLines(m: {
   return { lines, deckSheets, panelScrews };
 }
 
-export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions = {}): TakeoffOutcome {
+export function computeTakeoffParsed(input: TakeoffInput, opts?: TakeoffOptions & { detail?: "full" }): TakeoffOutcome;
+export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions & { detail: "quantities" }): TakeoffOutcome<TakeoffQuantities>;
+export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions = {}): TakeoffOutcome<TakeoffResult<PlaneResult | PlaneQuantities>> {
   const { site, rules } = input;
   // ---- geometry --------------------------------------------------------------------------------------
   const geoms: PlaneGeometry[] = [];
@@ -723,6 +774,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       }
       return c;
     },
+    detail: opts.detail ?? "full",
   };
   const sums = newJobSums();
   const planeResults = scoped.map((i) => takeoffPlane(ctx, i, sums));
@@ -853,14 +905,14 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   const fasteners: FastenersResult = { clips, clipScrews, panelScrews, trimFasteners, spacerFasteners, zones };
   const totals = {
     planAreaSqFt: planArea,
-    slopedAreaSqFt: planeResults.reduce((t, p) => t + p.slopedAreaSqFt, 0),
-    squares: planeResults.reduce((t, p) => t + p.squares, 0),
-    panelCount: planeResults.reduce((t, p) => t + p.panels.count, 0),
-    panelLengthFt: planeResults.reduce((t, p) => t + p.panels.totalLengthFt, 0),
-    offcutSqFt: planeResults.reduce((t, p) => t + p.panels.offcutSqFt, 0),
+    slopedAreaSqFt: sums.slopedAreaSqFt,
+    squares: sums.squares,
+    panelCount: sums.panelCount,
+    panelLengthFt: sums.panelLengthFt,
+    offcutSqFt: sums.offcutSqFt,
     deckSheets,
   };
-  const result: TakeoffResult = {
+  const result: TakeoffResult<PlaneResult | PlaneQuantities> = {
     planes: planeResults,
     edgeTotals,
     totals,

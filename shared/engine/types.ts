@@ -14,12 +14,19 @@ import type { PlaneWindZones, WindZone } from "./wind/zones";
 
 export type { EdgeType, EdgeTotals, MaterialLine, Advisory, CutListEntry, WindZone };
 
-export interface EdgeResult {
+/** An edge piece's type and lengths: what every takeoff answer carries for each edge. */
+export interface EdgeQuantities {
   /** The input edge number (edge i runs from vertex i to vertex i + 1). */
   index: number;
+  type: EdgeType;
+  planLengthFt: number;
+  trueLengthFt: number;
+}
+
+/** An edge piece with where it lies and how its type was reached (the full detail). */
+export interface EdgeResult extends EdgeQuantities {
   /** Piece number when the edge is split where a neighbouring plane's edge begins or ends. */
   part: number;
-  type: EdgeType;
   /** The type from the geometry, before any override. */
   computedType: EdgeType;
   overridden: boolean;
@@ -28,20 +35,22 @@ export interface EdgeResult {
   sharedWith: { planeId: string; edgeIndex: number } | null;
   from: [number, number];
   to: [number, number];
-  planLengthFt: number;
-  trueLengthFt: number;
 }
 
-export interface PanelsResult {
-  system: "standing-seam" | "exposed-fastener";
-  coverageWidthIn: number;
+/** A plane's panels: how many, each one's length and the cut list. */
+export interface PanelQuantities {
   count: number;
   /** One entry per panel, whole inches. */
   lengthsIn: number[];
   cutList: CutListEntry[];
+  longestIn: number;
+}
+
+export interface PanelsResult extends PanelQuantities {
+  system: "standing-seam" | "exposed-fastener";
+  coverageWidthIn: number;
   offcutSqFt: number;
   totalLengthFt: number;
-  longestIn: number;
 }
 
 export interface PlaneLayersResult {
@@ -55,16 +64,26 @@ export interface PlaneLayersResult {
   deckSqFt: number;
 }
 
-export interface PlaneResult {
+/**
+ * A plane's quantities: its areas, squares, typed edges with their lengths and its panels. The takeoff
+ * answer of the calculation API carries these per plane unless the full detail is asked for.
+ */
+export interface PlaneQuantities {
   id: string;
   name: string;
   stackId: string;
   pitch: number;
-  angleDeg: number;
   slopeFactor: number;
   planAreaSqFt: number;
   slopedAreaSqFt: number;
   squares: number;
+  edges: EdgeQuantities[];
+  panels: PanelQuantities;
+}
+
+/** A plane's full detail: also its corners' heights, where each edge piece lies, its wind zones and layers. */
+export interface PlaneResult extends PlaneQuantities {
+  angleDeg: number;
   /** Each vertex with its height (ft). */
   vertices: { x: number; y: number; z: number }[];
   eaveEdge: number;
@@ -129,8 +148,9 @@ export interface TakeoffTotals {
   deckSheets: number;
 }
 
-export interface TakeoffResult {
-  planes: PlaneResult[];
+/** The takeoff with each plane's full detail (`P` = PlaneResult) or only its quantities (PlaneQuantities). */
+export interface TakeoffResult<P extends PlaneQuantities = PlaneResult> {
+  planes: P[];
   edgeTotals: EdgeTotals;
   totals: TakeoffTotals;
   materials: MaterialLine[];
@@ -143,6 +163,9 @@ export interface TakeoffResult {
   advisories: Advisory[];
 }
 
-export type TakeoffOutcome =
-  | { ok: true; result: TakeoffResult }
+/** The takeoff with each plane's quantities only. */
+export type TakeoffQuantities = TakeoffResult<PlaneQuantities>;
+
+export type TakeoffOutcome<R = TakeoffResult> =
+  | { ok: true; result: R }
   | { ok: false; reason: string; path: (string | number)[]; fields?: Record<string, string> };

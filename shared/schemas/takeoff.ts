@@ -431,6 +431,15 @@ export type PlaneInput = TakeoffInput["planes"][number];
 export type StackInput = TakeoffInput["stacks"][number];
 export type SiteInput = TakeoffInput["site"];
 
+/**
+ * Query of the calculation routes: `detail=full` asks for each plane's whole detail (corner heights, where each
+ * edge piece lies and what it meets, wind zones and layers per plane); by default each plane carries its
+ * quantities (areas, squares, typed edges with their lengths, panels and cut list), as the roof-wide figures do.
+ */
+export const calcQuerySchema = z.object({
+  detail: z.enum(["quantities", "full"], { error: 'Use detail=quantities or detail=full' }).default("quantities"),
+});
+
 export const gapStudyInputSchema = z
   .object({ ...baseShape, planeIds: z.array(id, { error: "Required" }).min(1, "Choose at least one plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`) })
   .superRefine((v, ctx) => {

@@ -4,7 +4,7 @@ import { createTestApp } from "../helpers/app";
 import { signedInAgent } from "../helpers/auth";
 import { truncateAll } from "../helpers/db";
 import { gableRoof } from "../../shared/engine/roof/generators";
-import { computeTakeoff } from "../../shared/engine/takeoff";
+import { computeTakeoff, computeTakeoffQuantities } from "../../shared/engine/takeoff";
 
 beforeEach(truncateAll);
 
@@ -29,15 +29,35 @@ describe("POST /api/calc/takeoff", () => {
     const { agent, token } = await signedInAgent({ role });
     const res = await agent.post("/api/calc/takeoff").set("X-CSRF-Token", token).send(gableInput());
     expect(res.status).toBe(200);
-    const expected = computeTakeoff(gableInput());
+    const expected = computeTakeoffQuantities(gableInput());
     expect(expected.ok).toBe(true);
-    // The route is the engine: same input, same numbers.
+    // The route is the engine: same input, same numbers (each plane's quantities unless detail=full).
     expect(res.body.data).toEqual(JSON.parse(JSON.stringify(expected.ok && expected.result)));
+    expect(res.body.data.planes[0]).not.toHaveProperty("windZones");
     // 40 × 30 ft gable at 6/12: plan 1200 ft², slope factor √(144+36)/12 = 1.1180 (rafter tables), sloped 1341.6 ft².
     expect(res.body.data.totals.planAreaSqFt).toBeCloseTo(1200, 6);
     expect(res.body.data.totals.slopedAreaSqFt).toBeCloseTo(1200 * Math.sqrt(180) / 12, 6);
     // One ridge of 40 ft, counted once although two planes share it.
     expect(res.body.data.edgeTotals.ridgeLf).toBeCloseTo(40, 6);
+  });
+
+  it("gives each plane's whole detail with detail=full, and 400 for another detail", async () => {
+    const { agent, token } = await signedInAgent({ role: "estimator" });
+    const res = await agent.post("/api/calc/takeoff?detail=full").set("X-CSRF-Token", token).send(gableInput());
+    expect(res.status).toBe(200);
+    const expected = computeTakeoff(gableInput());
+    expect(res.body.data).toEqual(JSON.parse(JSON.stringify(expected.ok && expected.result)));
+    expect(res.body.data.planes[0].windZones.widths.zone2PlanFt).toBeGreaterThan(0);
+    expect(res.body.data.planes[0].vertices).toHaveLength(4);
+    const lean = await agent.post("/api/calc/takeoff?detail=quantities").set("X-CSRF-Token", token).send(gableInput());
+    expect(lean.status).toBe(200);
+    // The roof-wide figures do not depend on the detail asked for.
+    for (const key of ["edgeTotals", "totals", "materials", "fasteners", "ventilation", "thermal", "advisories"]) {
+      expect(lean.body.data[key]).toEqual(res.body.data[key]);
+    }
+    const bad = await agent.post("/api/calc/takeoff?detail=everything").set("X-CSRF-Token", token).send(gableInput());
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.fields).toHaveProperty("detail");
   });
 
   it("answers bad input with 400 and the field path", async () => {
@@ -81,6 +101,15 @@ describe("POST /api/calc/gap-study", () => {
       "dimpled",
     ]);
     for (const o of res.body.data.options) expect(o.result.totals.planAreaSqFt).toBeGreaterThan(0);
+    // Each plane's quantities by default, its whole detail with detail=full.
+    expect(Object.keys(res.body.data.options[0].result.planes[0])).not.toContain("layers");
+    const full = await agent
+      .post("/api/calc/gap-study?detail=full")
+      .set("X-CSRF-Token", token)
+      .send({ ...gableInput(), planeIds: ["p-s"] });
+    expect(full.status).toBe(200);
+    expect(full.body.data.options[3].result.planes[0].layers.meshSqFt).toBeGreaterThan(0);
+    expect(full.body.data.options.map((o: { summary: unknown }) => o.summary)).toEqual(res.body.data.options.map((o: { summary: unknown }) => o.summary));
   });
 
   it("answers a missing planeIds with 400", async () => {
