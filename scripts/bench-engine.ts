@@ -3,11 +3,13 @@
  * Target: under 5 ms per takeoff. Then, in the same run, the HTTP round trip of POST /api/calc/takeoff
  * against an authenticated echo of the same payload (POST /api/calc/echo) on the real app and a
  * throwaway benchmark database: targets ratio ≤ 2 and the takeoff round trip under 100 ms.
+ * The route answers each plane's quantities unless asked for the full detail (?detail=full); the round trip is
+ * timed both ways.
  * Run: `npm run bench:engine` (tsx scripts/bench-engine.ts [planes] [runs]).
  */
 import { performance } from "node:perf_hooks";
 import { z } from "zod";
-import { computeTakeoff } from "../shared/engine/takeoff";
+import { computeTakeoff, computeTakeoffQuantities } from "../shared/engine/takeoff";
 import { buildBenchRoof } from "../shared/engine/roof/bench-roof";
 
 const args = z
@@ -16,18 +18,19 @@ const args = z
 const [planeCount, runs] = args;
 const WARM_UP_MS = 2_000;
 
-export function benchEngine(planes = planeCount, n = runs) {
+/** `compute`: the full takeoff (each plane's whole detail, as the app's screens use) or the quantities only. */
+export function benchEngine(planes = planeCount, n = runs, compute: (input: unknown) => ReturnType<typeof computeTakeoff> | ReturnType<typeof computeTakeoffQuantities> = computeTakeoff) {
   const input = buildBenchRoof(planes);
-  const first = computeTakeoff(input);
+  const first = compute(input);
   if (!first.ok) throw new Error(`bench roof refused: ${first.reason} at ${first.path.join(".")}`);
   // Warm-up until the optimising compiler is done (as in a server that has been up a few seconds): at least 30
   // runs and 2 s. The optimised code of the takeoff takes V8 a few hundred milliseconds to build in the
   // background, and runs timed before it is ready measure the interpreter, not the engine.
-  for (let i = 0, t0 = performance.now(); i < 30 || performance.now() - t0 < WARM_UP_MS; i++) computeTakeoff(input);
+  for (let i = 0, t0 = performance.now(); i < 30 || performance.now() - t0 < WARM_UP_MS; i++) compute(input);
   const times: number[] = [];
   for (let i = 0; i < n; i++) {
     const t0 = performance.now();
-    computeTakeoff(input);
+    compute(input);
     times.push(performance.now() - t0);
   }
   times.sort((a, b) => a - b);
@@ -49,28 +52,31 @@ const median = (xs: number[]) => {
   return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
 
-/** Sequential round trips (one at a time, keep-alive) of the same payload to two routes, interleaved. */
+/** Sequential round trips (one at a time, keep-alive) of the same payload, interleaved: the takeoff with each
+ * plane's quantities (the default), the takeoff with each plane's whole detail, and the echo. */
 async function benchRoundTrip(planes: number, n: number) {
   // Loaded only now: the engine is timed first in a process that holds nothing else (see below).
   const { startBenchServer } = await import("./lib/bench-server");
   const server = await startBenchServer();
   try {
     const body = JSON.stringify(buildBenchRoof(planes));
+    const answerBytes: Record<string, number> = {};
     const post = async (path: string) => {
       const t0 = performance.now();
       const res = await fetch(server.url + path, { method: "POST", headers: server.headers, body });
-      await res.arrayBuffer();
+      const answer = await res.arrayBuffer();
+      const ms = performance.now() - t0;
       if (res.status !== 200) throw new Error(`${path} answered ${res.status}`);
-      return performance.now() - t0;
+      answerBytes[path] = answer.byteLength;
+      return ms;
     };
-    for (let i = 0; i < 20; i++) await post("/api/calc/takeoff"), await post("/api/calc/echo"); // warm-up
-    const takeoff: number[] = [];
-    const echo: number[] = [];
-    for (let i = 0; i < n; i++) {
-      takeoff.push(await post("/api/calc/takeoff"));
-      echo.push(await post("/api/calc/echo"));
-    }
-    return { bytes: body.length, takeoffMs: median(takeoff), echoMs: median(echo), runs: n };
+    const routes = ["/api/calc/takeoff", "/api/calc/takeoff?detail=full", "/api/calc/echo"];
+    for (let i = 0; i < 20; i++) for (const r of routes) await post(r); // warm-up
+    const times: number[][] = routes.map(() => []);
+    for (let i = 0; i < n; i++) for (let k = 0; k < routes.length; k++) times[k].push(await post(routes[k]));
+    const [takeoffMs, fullMs, echoMs] = times.map(median);
+    const kb = (path: string) => Math.round(answerBytes[path] / 1024);
+    return { bytes: body.length, takeoffMs, fullMs, echoMs, takeoffKb: kb(routes[0]), fullKb: kb(routes[1]), runs: n };
   } finally {
     await server.close();
   }
@@ -80,12 +86,16 @@ const line = (r: ReturnType<typeof benchEngine>) =>
   `${r.planes} planes (${r.panels} panels, ${r.squares.toFixed(0)} squares), ${r.runs} runs: median ${r.medianMs.toFixed(2)} ms (p95 ${r.p95Ms.toFixed(2)} ms, min ${r.minMs.toFixed(2)} ms)`;
 // The engine alone (the pure module, nothing else loaded), which is what the target is about …
 console.log(`engine takeoff, ${line(benchEngine())}; target < 5 ms`);
+console.log(`engine takeoff, each plane's quantities only (what POST /api/calc/takeoff answers by default), ${line(benchEngine(planeCount, runs, computeTakeoffQuantities))}`);
 const rt = await benchRoundTrip(planeCount, Math.min(runs, 100));
 // … and again in this process now that it also holds the whole server (Express, Sequelize, the PDF and mail
 // libraries): a bigger heap makes each young-generation collection cost more, as in the server itself.
 console.log(`engine takeoff in a process that holds the server, ${line(benchEngine())}`);
 console.log(
   `HTTP round trip, ${planeCount}-plane roof (${(rt.bytes / 1024).toFixed(0)} KB JSON), ${rt.runs} runs each: ` +
-    `POST /api/calc/takeoff median ${rt.takeoffMs.toFixed(2)} ms, authenticated echo ${rt.echoMs.toFixed(2)} ms, ` +
+    `POST /api/calc/takeoff (${rt.takeoffKb} KB answer) median ${rt.takeoffMs.toFixed(2)} ms, authenticated echo ${rt.echoMs.toFixed(2)} ms, ` +
     `ratio ${(rt.takeoffMs / rt.echoMs).toFixed(2)}; targets: ratio ≤ 2, round trip < 100 ms`,
+);
+console.log(
+  `  with each plane's whole detail (?detail=full, ${rt.fullKb} KB answer): median ${rt.fullMs.toFixed(2)} ms, ratio ${(rt.fullMs / rt.echoMs).toFixed(2)}`,
 );
