@@ -162,9 +162,57 @@ function prepare(roof: RoofEdges, dx: number, dy: number): Float64Array {
  * out[i], out[i+1]; returns whether it is non-empty. Allocation-free: the union of the line's intervals in
  * the two end disks and the middle rectangle (u along the edge in [0, L], across it in [−r, r]). The
  * rectangle is a slab clip: t where u0 + t·du stays in [0, L] and w0 + t·dw in [−r, r] (a line parallel to
- * a slab, |du| or |dw| < 1e-15, is inside it entirely or not at all).
+ * a slab, |du| or |dw| < 1e-15, is inside it entirely or not at all). The common case (below) is kept
+ * small so that it can be inlined into the per-line loops; the rest is in intervalFull.
  */
 function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
+  // Fast case: the line crosses the band |w| ≤ r well inside the edge's ends. Then the answer is the
+  // band slab alone, bit for bit, and the end disks and the u slab need not be worked out. Why: let P be
+  // where the line meets w = ±r (the band slab's ends ta, tb) and m = 0.49·r. If m ≤ u ≤ L − m at both P
+  // (u is linear along the line, so between them too), then
+  //  - the u slab's ends lie at least m / |du| ≥ m beyond ta and tb along the line (t is arc length);
+  //  - a point Q of the line in an end disk is inside the band, so between the two P; and where the line
+  //    meets the disk's circle (|Q − end| = r) it is at least |P − end| − r ≥ √(m² + r²) − r ≈ 0.11·r
+  //    from either P, as |P − end| ≥ √(m² + r²).
+  // So the original min/max over the disks and slabs picks ta and tb unless rounding moves a value by
+  // about 0.11·r. The guards keep every rounding far smaller: |dw| ≥ 0.01 (the line is not nearly
+  // parallel to the edge, so ta and tb carry a relative error of a few 1e-16 over 0.01), and
+  // r ≥ 1e-4 · (|u0| + |w0| + L), which bounds the distance from p to either end by 1e4·r; the worst
+  // rounding is in a near-tangent disk, √(a few ε) ≈ 3e-8 of that distance, i.e. ≤ 3e-4·r.
+  // The values returned are the very ta, tb the full path would compute (same expressions).
+  const L0 = v[o + 6];
+  const dw0 = v[o + 8];
+  if (L0 > 0 && (dw0 >= 0.01 || dw0 <= -0.01)) {
+    const fx0 = px - v[o];
+    const fy0 = py - v[o + 1];
+    const ux = v[o + 4];
+    const uy = v[o + 5];
+    const u0 = fx0 * ux + fy0 * uy;
+    const w0 = -fx0 * uy + fy0 * ux;
+    if (r >= 1e-4 * (Math.abs(u0) + Math.abs(w0) + L0)) {
+      let ta = (-r - w0) / dw0;
+      let tb = (r - w0) / dw0;
+      if (ta > tb) {
+        const x = ta;
+        ta = tb;
+        tb = x;
+      }
+      const du = v[o + 7];
+      const ua = u0 + du * ta;
+      const ub = u0 + du * tb;
+      const m = 0.49 * r;
+      if (ua >= m && ua <= L0 - m && ub >= m && ub <= L0 - m) {
+        out[i] = ta;
+        out[i + 1] = tb;
+        return true;
+      }
+    }
+  }
+  return intervalFull(px, py, dx, dy, v, o, r, out, i);
+}
+
+/** intervalPrepared without its fast case: the disks and the two slabs, always. */
+function intervalFull(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
   let lo = Infinity;
   let hi = -Infinity;
   // End disks: |p + t·d − end|² = r², a quadratic in t with half-coefficient B (d is a unit vector).
@@ -374,6 +422,7 @@ let CUTS = new Float64Array(64);
 let SEG_ZONE = new Int8Array(64);
 let SEG_LEN = new Float64Array(64);
 let ACTIVE_CORNERS = new Int32Array(16);
+let REACH = new Int32Array(16);
 
 /** Sorts cuts[0..n) ascending in place: insertion sort, as a line has only a handful of cuts. */
 function sortCuts(cuts: Float64Array, n: number): void {
@@ -412,6 +461,7 @@ function ensureScratch(roof: FlatRoof): void {
     SEG_LEN = new Float64Array(ne * 12 + 4);
   }
   if (ACTIVE_CORNERS.length < roof.nq * 2) ACTIVE_CORNERS = new Int32Array(roof.nq * 4);
+  if (REACH.length < ne) REACH = new Int32Array(ne * 2);
 }
 
 /**
@@ -438,11 +488,15 @@ function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: 
   const iv = IV;
   const cuts = CUTS;
   const active = ACTIVE_CORNERS;
+  const reach = REACH;
   const segZone = SEG_ZONE;
   const segLen = SEG_LEN;
   let nc = 0;
   cuts[nc++] = 0;
   cuts[nc++] = len;
+  // reach[0..nr) lists (by IV offset) the intervals that meet the open segment (0, len): only those can
+  // hold a piece's midpoint, which lies strictly inside it (pieces are longer than 1e-9).
+  let nr = 0;
   const rMax = Math.max(0, a);
   const across = px * dy - py * dx; // the line's position across its direction
   for (let e = 0; e < ne; e++) {
@@ -458,8 +512,11 @@ function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: 
       iv[o + 1] = -Infinity;
       continue;
     }
-    if (iv[o] > 0 && iv[o] < len) cuts[nc++] = iv[o];
-    if (iv[o + 1] > 0 && iv[o + 1] < len) cuts[nc++] = iv[o + 1];
+    const lo = iv[o];
+    const hi = iv[o + 1];
+    if (lo > 0 && lo < len) cuts[nc++] = lo;
+    if (hi > 0 && hi < len) cuts[nc++] = hi;
+    if (lo < len && hi > 0) reach[nr++] = o;
   }
   sortCuts(cuts, nc);
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
@@ -481,11 +538,13 @@ function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: 
     if (seg <= 1e-9) continue;
     const t = (cuts[c] + cuts[c + 1]) / 2;
     let zone = 1;
-    for (let o = 0; o < 2 * ne; o += 2)
+    for (let x = 0; x < nr; x++) {
+      const o = reach[x];
       if (iv[o] <= t && t <= iv[o + 1]) {
         zone = 2;
         break;
       }
+    }
     if (zone === 2)
       for (let q = 0; q < na; q += 2) {
         const i = active[q];
@@ -638,8 +697,6 @@ export interface PlaneFastenerOptions {
   battenSpacingIn: number | null;
 }
 
-const ceilTol = (x: number) => Math.ceil(x - 1e-9);
-
 // Per-zone tallies of the plane planeFasteners is on, by zone code (1', 1, 2, 3): clips, line ft, area,
 // screws. Reused across calls (the engine is synchronous and single-threaded).
 const Z_CLIPS = new Float64Array(4);
@@ -647,12 +704,17 @@ const Z_LINE = new Float64Array(4);
 const Z_AREA = new Float64Array(4);
 const Z_SCREWS = new Float64Array(4);
 const EXACT = new Float64Array(4);
+const SPACING_OF = new Float64Array(4);
+const SCREWS_OF = new Float64Array(4);
 
 /** Share c clips of one run (segments i0..i1) among its zones in proportion to length (largest remainder). */
 function distribute(c: number, i0: number, i1: number, total: number, segZone: Int8Array, segLen: Float64Array, clipsByZone: Float64Array) {
   if (c === 0 || !(total > 0)) return;
   const exact = EXACT;
-  exact.fill(0);
+  exact[0] = 0;
+  exact[1] = 0;
+  exact[2] = 0;
+  exact[3] = 0;
   for (let i = i0; i <= i1; i++) exact[segZone[i]] += (c * segLen[i]) / total;
   let given = 0;
   for (let z = 0; z < 4; z++) {
@@ -713,24 +775,34 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
     edge: spacingOverBattens(opts.clipSpacingIn.edge, opts.battenSpacingIn),
     corner: spacingOverBattens(opts.clipSpacingIn.corner, opts.battenSpacingIn),
   };
-  // By zone code (1', 1, 2, 3): the spacing used, whether the battens forced it wider than asked, and
-  // exposed-fastener screws per square.
-  const spacingOf = [spacing.field, spacing.field, spacing.edge, spacing.corner];
+  // By zone code (1', 1, 2, 3): the spacing used and exposed-fastener screws per square (scratch arrays),
+  // and the zones the battens force wider than asked, listed in the order first met (limitedNew has a bit
+  // per such zone code not yet listed).
+  const spacingOf = SPACING_OF;
+  spacingOf[0] = spacing.field;
+  spacingOf[1] = spacing.field;
+  spacingOf[2] = spacing.edge;
+  spacingOf[3] = spacing.corner;
+  const screwsOf = SCREWS_OF;
+  screwsOf[0] = opts.screwsPerSquare.field;
+  screwsOf[1] = opts.screwsPerSquare.field;
+  screwsOf[2] = opts.screwsPerSquare.edge;
+  screwsOf[3] = opts.screwsPerSquare.corner;
   const bs = opts.battenSpacingIn;
-  const limitedOf = [
-    limitedByBattens(opts.clipSpacingIn.field, bs),
-    limitedByBattens(opts.clipSpacingIn.field, bs),
-    limitedByBattens(opts.clipSpacingIn.edge, bs),
-    limitedByBattens(opts.clipSpacingIn.corner, bs),
-  ];
-  const screwsOf = [opts.screwsPerSquare.field, opts.screwsPerSquare.field, opts.screwsPerSquare.edge, opts.screwsPerSquare.corner];
-  // Limited zones in the order first met (a bit per zone code marks those already listed).
   const limited: WindZone[] = [];
-  let limitedSeen = 0;
-  Z_CLIPS.fill(0);
-  Z_LINE.fill(0);
-  Z_AREA.fill(0);
-  Z_SCREWS.fill(0);
+  let limitedNew = 0;
+  if (limitedByBattens(opts.clipSpacingIn.field, bs)) limitedNew |= 0b0011;
+  if (limitedByBattens(opts.clipSpacingIn.edge, bs)) limitedNew |= 0b0100;
+  if (limitedByBattens(opts.clipSpacingIn.corner, bs)) limitedNew |= 0b1000;
+  // Bit 4·z + z2 is set when zone codes z and z2 have the same spacing (so one run of the clip schedule).
+  let sameRun = 0;
+  for (let z = 0; z < 4; z++) for (let z2 = 0; z2 < 4; z2++) if (!(Math.abs(spacingOf[z2] - spacingOf[z]) >= 1e-9)) sameRun |= 1 << (4 * z + z2);
+  for (let z = 0; z < 4; z++) {
+    Z_CLIPS[z] = 0;
+    Z_LINE[z] = 0;
+    Z_AREA[z] = 0;
+    Z_SCREWS[z] = 0;
+  }
   const clipsPerPanel: number[] = [];
   let clips = 0;
   let panelScrews = 0;
@@ -744,24 +816,26 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       const ns = segmentInto(ox + s * rx + vMin * upX, oy + s * ry + vMin * upY, upX, upY, len, roof, model);
       let n = ns ? 1 : 0;
       if (ns) Z_CLIPS[segZone[0]] += 1;
-      // Neighbouring zones with the same spacing are one run of the clip schedule.
+      // Neighbouring zones with the same spacing are one run of the clip schedule; runFt sums the run's
+      // segments in order as they are met (the same additions as summing them at the run's end).
       let runStart = 0;
+      let runFt = 0;
       for (let i = 0; i < ns; i++) {
         const z = segZone[i];
-        if (limitedOf[z] && !(limitedSeen & (1 << z))) {
-          limitedSeen |= 1 << z;
+        if (limitedNew & (1 << z)) {
+          limitedNew &= ~(1 << z);
           limited.push(ZONE_BY_CODE[z]);
         }
-        Z_LINE[z] += segLen[i] * k;
-        const last = i === ns - 1 || Math.abs(spacingOf[segZone[i + 1]] - spacingOf[z]) >= 1e-9;
-        if (!last) continue;
-        let runFt = 0;
-        for (let j = runStart; j <= i; j++) runFt += segLen[j];
-        const c = ceilTol((runFt * k * 12) / spacingOf[z]);
+        const sl = segLen[i];
+        Z_LINE[z] += sl * k;
+        runFt += sl;
+        if (i !== ns - 1 && sameRun & (1 << (4 * z + segZone[i + 1]))) continue;
+        const c = Math.ceil((runFt * k * 12) / spacingOf[z] - 1e-9); // whole clips, 1e-9 of slack
         n += c;
         if (runStart === i) Z_CLIPS[z] += c;
         else distribute(c, runStart, i, runFt, segZone, segLen, Z_CLIPS);
         runStart = i + 1;
+        runFt = 0;
       }
       clipsPerPanel.push(n);
       clips += n;
