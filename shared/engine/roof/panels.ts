@@ -11,7 +11,7 @@
  */
 import { TOL } from "../constants";
 import type { PlaneGeometry } from "./geometry";
-import { StripSlicer, type StripComponent } from "./polygon";
+import { StripSlicer } from "./polygon";
 
 export type PanelStart = "left" | "right" | "centred";
 
@@ -198,40 +198,90 @@ export interface PanelOptions {
   into?: PanelPieces;
 }
 
-/** Strip start positions (local s, ft) covering [sMin, sMax] in laying order. */
-export function stripStarts(sMin: number, sMax: number, w: number, start: PanelStart): number[] {
-  const out: number[] = [];
+// Strip starts of the plane being laid out (see fillStripStarts), grown on demand.
+let STARTS = new Float64Array(64);
+
+/**
+ * Writes the strip start positions (local s, ft) covering [sMin, sMax], in laying order, into STARTS and
+ * returns their count (no array per plane).
+ */
+function fillStripStarts(sMin: number, sMax: number, w: number, start: PanelStart): number {
+  let out: Float64Array = STARTS;
+  let n = 0;
   if (start === "left") {
-    for (let a = sMin, j = 0; a < sMax - TOL; a = sMin + ++j * w) out.push(a);
+    for (let a = sMin, j = 0; a < sMax - TOL; a = sMin + ++j * w) {
+      if (n === out.length) out = growStarts();
+      out[n++] = a;
+    }
   } else if (start === "right") {
-    for (let b = sMax, j = 0; b > sMin + TOL; b = sMax - ++j * w) out.push(b - w);
+    for (let b = sMax, j = 0; b > sMin + TOL; b = sMax - ++j * w) {
+      if (n === out.length) out = growStarts();
+      out[n++] = b - w;
+    }
   } else {
     const c = (sMin + sMax) / 2 - w / 2;
     const j0 = Math.floor((sMin - c) / w);
-    for (let j = j0; c + j * w < sMax - TOL; j++) if (c + (j + 1) * w > sMin + TOL) out.push(c + j * w);
+    for (let j = j0; c + j * w < sMax - TOL; j++) {
+      if (!(c + (j + 1) * w > sMin + TOL)) continue;
+      if (n === out.length) out = growStarts();
+      out[n++] = c + j * w;
+    }
   }
+  return n;
+}
+
+/** Doubles STARTS, keeping its contents; returns the new array. */
+function growStarts(): Float64Array {
+  const grown = new Float64Array(2 * STARTS.length);
+  grown.set(STARTS);
+  STARTS = grown;
+  return grown;
+}
+
+/** Strip start positions (local s, ft) covering [sMin, sMax] in laying order. */
+export function stripStarts(sMin: number, sMax: number, w: number, start: PanelStart): number[] {
+  const n = fillStripStarts(sMin, sMax, w, start);
+  const out: number[] = [];
+  for (let i = 0; i < n; i++) out.push(STARTS[i]);
   return out;
 }
 
-// Per-layout scratch (the engine is synchronous): the plane cut into strips, one piece record for convex
-// planes, and the counts of the cut list.
+// Per-layout scratch (the engine is synchronous): the plane cut into strips, and the counts and distinct
+// values of the cut list.
 const SLICER = new StripSlicer();
-const PIECE: StripComponent = { sMin: 0, sMax: 0, vMin: 0, vMax: 0, bottomEdge: 0, topEdge: 0, sProbe: 0 };
 let LENGTH_COUNT = new Int32Array(256);
+let DISTINCT = new Int32Array(64);
 
-/** Appends the panel of strip a…b over piece c; returns its ordered length. */
-function addPiece(pieces: PanelPieces, c: StripComponent, a: number, b: number, k: number, hem: number, right: boolean): number {
-  const slopeLengthFt = k * (c.vMax - c.vMin);
+/** Appends the panel of strip a…b over the piece sMin…sMax × vMin…vMax; returns its ordered length. */
+function addPiece(
+  pieces: PanelPieces,
+  a: number,
+  b: number,
+  sMin: number,
+  sMax: number,
+  vMin: number,
+  vMax: number,
+  bottomEdge: number,
+  topEdge: number,
+  sProbe: number,
+  k: number,
+  hem: number,
+  right: boolean,
+): number {
+  const slopeLengthFt = k * (vMax - vMin);
   const seam = right ? b : a;
   const lengthIn = Math.ceil(12 * slopeLengthFt + hem - 1e-6);
-  pieces.add(a, b, c.sMin, c.sMax, c.vMin, c.vMax, slopeLengthFt, lengthIn, c.bottomEdge, c.topEdge, c.sProbe, Math.min(Math.max(seam, c.sMin), c.sMax));
+  pieces.add(a, b, sMin, sMax, vMin, vMax, slopeLengthFt, lengthIn, bottomEdge, topEdge, sProbe, Math.min(Math.max(seam, sMin), sMax));
   return lengthIn;
 }
 
 /**
  * Cut list: equal lengths grouped, longest first. The lengths are whole inches in a narrow range, so they
- * are counted by value (no sort); an unusual list (a range over 4,096 in, or a value that is not a 32-bit
- * integer) takes the sorted path, which groups the values as Int32Array stores them.
+ * are counted by value (no sort of the lengths): the first time a length is seen it is noted, and the few
+ * distinct lengths are then put in order by insertion (a plane has a handful; with more than 32 the count
+ * array is walked from the longest length down instead, which gives the same list). An unusual list (a
+ * range over 4,096 in, or a value that is not a 32-bit integer) takes the sorted path, which groups the
+ * values as Int32Array stores them.
  */
 function cutListOf(lengthsIn: number[], minIn: number, maxIn: number): CutListEntry[] {
   const n = lengthsIn.length;
@@ -243,12 +293,36 @@ function cutListOf(lengthsIn: number[], minIn: number, maxIn: number): CutListEn
   if (plain) {
     if (LENGTH_COUNT.length < range) LENGTH_COUNT = new Int32Array(Math.max(range, LENGTH_COUNT.length * 2));
     const cnt = LENGTH_COUNT;
-    for (let i = 0; i < n; i++) cnt[lengthsIn[i] - minIn]++;
+    if (DISTINCT.length < n) DISTINCT = new Int32Array(Math.max(n, DISTINCT.length * 2));
+    const distinct = DISTINCT;
+    let d = 0;
+    for (let i = 0; i < n; i++) {
+      const l = lengthsIn[i];
+      if (cnt[l - minIn]++ === 0) distinct[d++] = l;
+    }
+    if (d <= 32) {
+      // Longest first: insertion sort, descending (the values are distinct).
+      for (let i = 1; i < d; i++) {
+        const x = distinct[i];
+        let j = i - 1;
+        while (j >= 0 && distinct[j] < x) {
+          distinct[j + 1] = distinct[j];
+          j--;
+        }
+        distinct[j + 1] = x;
+      }
+      for (let i = 0; i < d; i++) {
+        const l = distinct[i];
+        cutList.push({ lengthIn: l, count: cnt[l - minIn] });
+        cnt[l - minIn] = 0; // leave the scratch zeroed for the next plane
+      }
+      return cutList;
+    }
     for (let l = maxIn; l >= minIn; l--) {
       const c = cnt[l - minIn];
       if (c === 0) continue;
       cutList.push({ lengthIn: l, count: c });
-      cnt[l - minIn] = 0; // leave the scratch zeroed for the next plane
+      cnt[l - minIn] = 0;
     }
     return cutList;
   }
@@ -269,32 +343,46 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   const start = opts.start ?? "left";
   const hem = opts.hemAllowanceIn ?? 0;
   const k = g.slopeFactor;
-  const starts = stripStarts(g.sMin, g.sMax, w, start);
-  const pieces = opts.into ?? new PanelPieces(starts.length);
+  const nStrips = fillStripStarts(g.sMin, g.sMax, w, start);
+  const starts = STARTS;
+  const pieces = opts.into ?? new PanelPieces(nStrips);
   pieces.count = 0;
   // The plane's edges are read once; each strip is then cut from typed arrays without allocating.
   const slicer = SLICER.load(g.local);
-  const convex = slicer.isConvex();
+  const lengthsIn: number[] = [];
+  const right = start === "right";
+  if (slicer.isConvex()) {
+    // A convex plane has at most one piece per strip: all strips are cut in one pass.
+    slicer.convexStrips(starts, nStrips, w);
+    const { stripSMin, stripSMax, stripVMin, stripVMax, stripBottom, stripTop, stripProbe } = slicer;
+    for (let s = 0; s < nStrips; s++) {
+      // A piece TOL wide or less is no panel.
+      if (stripBottom[s] < 0 || stripSMax[s] - stripSMin[s] <= TOL) continue;
+      const a = starts[s];
+      const b = a + w;
+      lengthsIn.push(addPiece(pieces, a, b, stripSMin[s], stripSMax[s], stripVMin[s], stripVMax[s], stripBottom[s], stripTop[s], stripProbe[s], k, hem, right));
+    }
+  } else {
+    // Any other plane may have several pieces in a strip (a notch).
+    for (let s = 0; s < nStrips; s++) {
+      const a = starts[s];
+      const b = a + w;
+      const m = slicer.slice(a, b);
+      for (let q = 0; q < m; q++) {
+        const c = slicer.pieces[q];
+        if (c.sMax - c.sMin <= TOL) continue;
+        lengthsIn.push(addPiece(pieces, a, b, c.sMin, c.sMax, c.vMin, c.vMax, c.bottomEdge, c.topEdge, c.sProbe, k, hem, right));
+      }
+    }
+  }
   let totalIn = 0;
   let longestIn = 0;
   let shortestIn = Infinity;
-  const lengthsIn: number[] = [];
-  const right = start === "right";
-  for (let s = 0; s < starts.length; s++) {
-    const a = starts[s];
-    const b = a + w;
-    // A convex plane has at most one piece per strip; any other plane may have several (a notch).
-    const m = convex ? 1 : slicer.slice(a, b);
-    for (let q = 0; q < m; q++) {
-      const c = convex ? slicer.convex(a, b, PIECE) : slicer.pieces[q];
-      // A piece TOL wide or less is no panel.
-      if (!c || c.sMax - c.sMin <= TOL) continue;
-      const lengthIn = addPiece(pieces, c, a, b, k, hem, right);
-      lengthsIn.push(lengthIn);
-      totalIn += lengthIn;
-      if (lengthIn > longestIn) longestIn = lengthIn;
-      if (lengthIn < shortestIn) shortestIn = lengthIn;
-    }
+  for (let i = 0; i < lengthsIn.length; i++) {
+    const l = lengthsIn[i];
+    totalIn += l;
+    if (l > longestIn) longestIn = l;
+    if (l < shortestIn) shortestIn = l;
   }
   const n = pieces.count;
   const cutList = cutListOf(lengthsIn, shortestIn, longestIn);

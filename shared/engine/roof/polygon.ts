@@ -42,28 +42,50 @@ export function orientation(poly: readonly Pt[], eps = 1e-12): "ccw" | "cw" | nu
 
 const cross = (o: Pt, a: Pt, b: Pt) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
 
-function onSegment(p: Pt, a: Pt, b: Pt, eps: number): boolean {
-  return (
-    Math.min(a[0], b[0]) - eps <= p[0] &&
-    p[0] <= Math.max(a[0], b[0]) + eps &&
-    Math.min(a[1], b[1]) - eps <= p[1] &&
-    p[1] <= Math.max(a[1], b[1]) + eps
-  );
+/** `cross` on plain coordinates: (a − o) × (b − o), the same expression. */
+function crossXY(ox: number, oy: number, ax: number, ay: number, bx: number, by: number): number {
+  return (ax - ox) * (by - oy) - (ay - oy) * (bx - ox);
+}
+
+/** Is p inside the box of segment ab, widened by eps? */
+function onSegmentXY(px: number, py: number, ax: number, ay: number, bx: number, by: number, eps: number): boolean {
+  return Math.min(ax, bx) - eps <= px && px <= Math.max(ax, bx) + eps && Math.min(ay, by) - eps <= py && py <= Math.max(ay, by) + eps;
+}
+
+/** segmentsIntersect on plain coordinates (no point arrays). */
+function segmentsIntersectXY(
+  ax: number,
+  ay: number,
+  bx: number,
+  by: number,
+  cx: number,
+  cy: number,
+  dx: number,
+  dy: number,
+  eps: number,
+): boolean {
+  const d1 = crossXY(cx, cy, dx, dy, ax, ay);
+  const d2 = crossXY(cx, cy, dx, dy, bx, by);
+  const d3 = crossXY(ax, ay, bx, by, cx, cy);
+  const d4 = crossXY(ax, ay, bx, by, dx, dy);
+  // A proper crossing: each segment's ends strictly on both sides of the other's line.
+  if (((d1 > eps && d2 < -eps) || (d1 < -eps && d2 > eps)) && ((d3 > eps && d4 < -eps) || (d3 < -eps && d4 > eps))) return true;
+  // Touching: an end on (or within eps of) the other segment.
+  if (Math.abs(d1) <= eps && onSegmentXY(ax, ay, cx, cy, dx, dy, eps)) return true;
+  if (Math.abs(d2) <= eps && onSegmentXY(bx, by, cx, cy, dx, dy, eps)) return true;
+  if (Math.abs(d3) <= eps && onSegmentXY(cx, cy, ax, ay, bx, by, eps)) return true;
+  if (Math.abs(d4) <= eps && onSegmentXY(dx, dy, ax, ay, bx, by, eps)) return true;
+  return false;
 }
 
 /** Do segments ab and cd touch or cross (closed segments)? */
 export function segmentsIntersect(a: Pt, b: Pt, c: Pt, d: Pt, eps = 1e-9): boolean {
-  const d1 = cross(c, d, a);
-  const d2 = cross(c, d, b);
-  const d3 = cross(a, b, c);
-  const d4 = cross(a, b, d);
-  if (((d1 > eps && d2 < -eps) || (d1 < -eps && d2 > eps)) && ((d3 > eps && d4 < -eps) || (d3 < -eps && d4 > eps))) return true;
-  if (Math.abs(d1) <= eps && onSegment(a, c, d, eps)) return true;
-  if (Math.abs(d2) <= eps && onSegment(b, c, d, eps)) return true;
-  if (Math.abs(d3) <= eps && onSegment(c, a, b, eps)) return true;
-  if (Math.abs(d4) <= eps && onSegment(d, a, b, eps)) return true;
-  return false;
+  return segmentsIntersectXY(a[0], a[1], b[0], b[1], c[0], c[1], d[0], d[1], eps);
 }
+
+// The corners of the polygon being checked by selfIntersection, read once.
+let SI_X = new Float64Array(16);
+let SI_Y = new Float64Array(16);
 
 /**
  * Simple-polygon test: no repeated consecutive vertex, no edge touching a non-adjacent edge, and no
@@ -72,29 +94,49 @@ export function segmentsIntersect(a: Pt, b: Pt, c: Pt, d: Pt, eps = 1e-9): boole
  */
 export function selfIntersection(poly: readonly Pt[], minEdge = 1e-9): { i: number; j: number } | null {
   const n = poly.length;
+  if (SI_X.length < n) {
+    SI_X = new Float64Array(2 * n);
+    SI_Y = new Float64Array(2 * n);
+  }
+  const xs = SI_X;
+  const ys = SI_Y;
   for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
-    if (Math.sqrt((b[0] - a[0]) ** 2 + (b[1] - a[1]) ** 2) <= minEdge) return { i, j: i };
+    xs[i] = poly[i][0];
+    ys[i] = poly[i][1];
   }
   for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
+    const k = i + 1 < n ? i + 1 : 0;
+    if (Math.sqrt((xs[k] - xs[i]) ** 2 + (ys[k] - ys[i]) ** 2) <= minEdge) return { i, j: i };
+  }
+  for (let i = 0; i < n; i++) {
+    // Edge i runs from a to b.
+    const i1 = i + 1 < n ? i + 1 : 0;
+    const ax = xs[i];
+    const ay = ys[i];
+    const bx = xs[i1];
+    const by = ys[i1];
     for (let j = i + 1; j < n; j++) {
-      const c = poly[j];
-      const d = poly[(j + 1) % n];
-      const adjacent = j === i + 1 || (i === 0 && j === n - 1);
-      if (adjacent) {
-        // Adjacent edges share one vertex; they must not overlap beyond it (a fold-back).
-        const shared = j === i + 1 ? b : a;
-        const other1 = j === i + 1 ? a : b;
-        const other2 = j === i + 1 ? d : c;
-        const cr = cross(shared, other1, other2);
-        const dot = (other1[0] - shared[0]) * (other2[0] - shared[0]) + (other1[1] - shared[1]) * (other2[1] - shared[1]);
+      // Edge j runs from c to d.
+      const j1 = j + 1 < n ? j + 1 : 0;
+      const cx = xs[j];
+      const cy = ys[j];
+      const dx = xs[j1];
+      const dy = ys[j1];
+      if (j === i + 1) {
+        // Adjacent edges share one vertex (b = c); they must not overlap beyond it (a fold-back).
+        const cr = crossXY(bx, by, ax, ay, dx, dy);
+        const dot = (ax - bx) * (dx - bx) + (ay - by) * (dy - by);
         if (Math.abs(cr) <= 1e-9 && dot > 0) return { i, j };
         continue;
       }
-      if (segmentsIntersect(a, b, c, d)) return { i, j };
+      if (i === 0 && j === n - 1) {
+        // The last edge ends where the first begins (d = a).
+        const cr = crossXY(ax, ay, bx, by, cx, cy);
+        const dot = (bx - ax) * (cx - ax) + (by - ay) * (cy - ay);
+        if (Math.abs(cr) <= 1e-9 && dot > 0) return { i, j };
+        continue;
+      }
+      if (segmentsIntersectXY(ax, ay, bx, by, cx, cy, dx, dy, 1e-9)) return { i, j };
     }
   }
   return null;
@@ -186,6 +228,10 @@ let G_BOT = new Int32Array(64);
 let G_TOP = new Int32Array(64);
 let G_COL = new Uint8Array(64);
 
+/** One strip's sides, for StripSlicer.convex. */
+const ONE_A = new Float64Array(1);
+const ONE_B = new Float64Array(1);
+
 function ensureTraps(n: number): void {
   if (T_S0.length >= n) return;
   const m = Math.max(n, T_S0.length * 2);
@@ -241,6 +287,22 @@ export class StripSlicer {
   private hi = new Float64Array(8);
   /** Corner s in ascending order (equal values in corner order). */
   private sorted = new Float64Array(8);
+  /**
+   * The pieces found by the last `convexStrips`, slot i for strip i (the fields of StripComponent); a strip
+   * without a piece has stripBottom −1.
+   */
+  stripSMin = new Float64Array(64);
+  stripSMax = new Float64Array(64);
+  stripVMin = new Float64Array(64);
+  stripVMax = new Float64Array(64);
+  stripProbe = new Float64Array(64);
+  stripBottom = new Int32Array(64);
+  stripTop = new Int32Array(64);
+  /** Gaps between corners for the convex cut (see prepareGaps). */
+  private gapLo = new Float64Array(8);
+  private gapHi = new Float64Array(8);
+  private gapFirst = new Int32Array(9);
+  private gapEdges = new Int32Array(64);
 
   /** Reads the polygon's corners; returns this. */
   load(poly: readonly Pt[]): this {
@@ -317,71 +379,210 @@ export class StripSlicer {
   }
 
   /**
-   * The strip's piece of the loaded polygon when it is convex (at most one): its v range is reached at the
-   * strip's sides or at corners inside the strip; its bottom and top edges are the lowest and highest at the
-   * strip's middle. Written into `into` when given, else a new object.
+   * The strip's piece of the loaded polygon when it is convex (at most one); see cutConvex. Written into
+   * `into` when given, else a new object.
    */
   convex(a: number, b: number, into?: StripComponent): StripComponent | null {
-    const { n, ps, pv, m, lo, hi } = this;
-    const s0 = Math.max(a, this.sMin);
-    const s1 = Math.min(b, this.sMax);
-    if (!(s1 - s0 > 1e-12)) return null;
-    let vMin = Infinity;
-    let vMax = -Infinity;
-    for (let i = 0; i < n; i++) {
-      const s = ps[i];
-      if (s >= s0 && s <= s1) {
-        const v = pv[i];
-        if (v < vMin) vMin = v;
-        if (v > vMax) vMax = v;
-      }
-    }
-    const sMid = (s0 + s1) / 2;
-    let bottomEdge = -1;
-    let topEdge = -1;
-    let vb = Infinity;
-    let vt = -Infinity;
-    for (let i = 0; i < n; i++) {
-      const l = lo[i];
-      const h = hi[i];
-      // An edge at constant s has the empty range and is skipped by every test below.
-      const mi = m[i];
-      const p0 = ps[i];
-      const p1 = pv[i];
-      // The edge's v at the strip sides it spans (tolerant ends).
-      if (s0 >= l && s0 <= h) {
-        const v = p1 + (s0 - p0) * mi;
-        if (v < vMin) vMin = v;
-        if (v > vMax) vMax = v;
-      }
-      if (s1 >= l && s1 <= h) {
-        const v = p1 + (s1 - p0) * mi;
-        if (v < vMin) vMin = v;
-        if (v > vMax) vMax = v;
-      }
-      // Inclusive: at a corner both edges meeting there give the same v; the first one is kept.
-      if (sMid >= l && sMid <= h) {
-        const v = p1 + (sMid - p0) * mi;
-        if (v < vb) {
-          vb = v;
-          bottomEdge = i;
-        }
-        if (v > vt) {
-          vt = v;
-          topEdge = i;
-        }
-      }
-    }
-    if (bottomEdge < 0 || topEdge < 0) return null;
+    ONE_A[0] = a;
+    ONE_B[0] = b;
+    this.cutConvex(ONE_A, ONE_B, 1, 0);
+    if (this.stripBottom[0] < 0) return null;
     const c = into ?? newComponent();
-    c.sMin = s0;
-    c.sMax = s1;
-    c.vMin = vMin;
-    c.vMax = vMax;
-    c.bottomEdge = bottomEdge;
-    c.topEdge = topEdge;
-    c.sProbe = sMid;
+    c.sMin = this.stripSMin[0];
+    c.sMax = this.stripSMax[0];
+    c.vMin = this.stripVMin[0];
+    c.vMax = this.stripVMax[0];
+    c.bottomEdge = this.stripBottom[0];
+    c.topEdge = this.stripTop[0];
+    c.sProbe = this.stripProbe[0];
     return c;
+  }
+
+  /**
+   * `convex` for many strips of the loaded (convex) polygon at once, strip i running from starts[i] to
+   * starts[i] + w (i < count): strip i's piece is written to slot i of the strip arrays (stripSMin …), and a
+   * strip without a piece gets stripBottom[i] = −1. A panel layout cuts dozens of strips per plane; this
+   * saves a call and a record per strip.
+   */
+  convexStrips(starts: Float64Array, count: number, w: number): void {
+    this.cutConvex(starts, null, count, w);
+  }
+
+  /**
+   * The convex cut of strips k = 0 … count − 1, from starts[k] to ends[k] (or starts[k] + w without ends),
+   * into slot k of the strip arrays. A convex polygon has at most one piece in a strip: its s range is the
+   * strip's overlap with the polygon's, its v range is reached at the strip's sides or at corners inside the
+   * strip, and its bottom and top edges are the lowest and highest at the strip's middle.
+   *
+   * The reference rule visits every corner, then every edge in index order, testing whether each strip side
+   * and the middle lie in the edge's tolerant s range. Most strips lie well between two corners (see
+   * prepareGaps): there no corner is inside the strip and every edge either spans the whole gap (all three
+   * tests pass) or misses it (all fail), so only the spanning edges are visited, in the same order and with
+   * the same arithmetic, which gives bit-identical results. Other strips take the full loops.
+   */
+  private cutConvex(starts: Float64Array, ends: Float64Array | null, count: number, w: number): void {
+    if (this.stripSMin.length < count) this.growStrips(count);
+    const nGaps = this.prepareGaps();
+    const { n, ps, pv, m, lo, hi, sMin, sMax, gapLo, gapHi, gapFirst, gapEdges } = this;
+    const { stripSMin, stripSMax, stripVMin, stripVMax, stripBottom, stripTop, stripProbe } = this;
+    let g = 0; // the gap of the last strip (strips usually come in order of s, either way)
+    for (let k = 0; k < count; k++) {
+      const a = starts[k];
+      const b = ends ? ends[k] : a + w;
+      const s0 = Math.max(a, sMin);
+      const s1 = Math.min(b, sMax);
+      if (!(s1 - s0 > 1e-12)) {
+        stripBottom[k] = -1;
+        continue;
+      }
+      const sMid = (s0 + s1) / 2;
+      let vMin = Infinity;
+      let vMax = -Infinity;
+      let bottomEdge = -1;
+      let topEdge = -1;
+      let vb = Infinity;
+      let vt = -Infinity;
+      // The gap holding s0, if any: the gaps are disjoint and in ascending order.
+      if (nGaps > 0) {
+        while (g + 1 < nGaps && gapHi[g] <= s0) g++;
+        while (g > 0 && gapLo[g] >= s0) g--;
+      }
+      if (nGaps > 0 && gapLo[g] < s0 && s1 < gapHi[g]) {
+        // Inside one gap: no corner in the strip; the spanning edges only, in index order.
+        for (let e = gapFirst[g]; e < gapFirst[g + 1]; e++) {
+          const i = gapEdges[e];
+          const mi = m[i];
+          const p0 = ps[i];
+          const p1 = pv[i];
+          const v0 = p1 + (s0 - p0) * mi;
+          if (v0 < vMin) vMin = v0;
+          if (v0 > vMax) vMax = v0;
+          const v1 = p1 + (s1 - p0) * mi;
+          if (v1 < vMin) vMin = v1;
+          if (v1 > vMax) vMax = v1;
+          const v = p1 + (sMid - p0) * mi;
+          if (v < vb) {
+            vb = v;
+            bottomEdge = i;
+          }
+          if (v > vt) {
+            vt = v;
+            topEdge = i;
+          }
+        }
+      } else {
+        for (let i = 0; i < n; i++) {
+          const s = ps[i];
+          if (s >= s0 && s <= s1) {
+            const v = pv[i];
+            if (v < vMin) vMin = v;
+            if (v > vMax) vMax = v;
+          }
+        }
+        for (let i = 0; i < n; i++) {
+          const l = lo[i];
+          const h = hi[i];
+          // An edge at constant s has the empty range and is skipped by every test below.
+          const mi = m[i];
+          const p0 = ps[i];
+          const p1 = pv[i];
+          // The edge's v at the strip sides it spans (tolerant ends).
+          if (s0 >= l && s0 <= h) {
+            const v = p1 + (s0 - p0) * mi;
+            if (v < vMin) vMin = v;
+            if (v > vMax) vMax = v;
+          }
+          if (s1 >= l && s1 <= h) {
+            const v = p1 + (s1 - p0) * mi;
+            if (v < vMin) vMin = v;
+            if (v > vMax) vMax = v;
+          }
+          // Inclusive: at a corner both edges meeting there give the same v; the first one is kept.
+          if (sMid >= l && sMid <= h) {
+            const v = p1 + (sMid - p0) * mi;
+            if (v < vb) {
+              vb = v;
+              bottomEdge = i;
+            }
+            if (v > vt) {
+              vt = v;
+              topEdge = i;
+            }
+          }
+        }
+      }
+      // (Bottom and top are found together: both or neither.)
+      if (bottomEdge < 0) {
+        stripBottom[k] = -1;
+        continue;
+      }
+      stripSMin[k] = s0;
+      stripSMax[k] = s1;
+      stripVMin[k] = vMin;
+      stripVMax[k] = vMax;
+      stripBottom[k] = bottomEdge;
+      stripTop[k] = topEdge;
+      stripProbe[k] = sMid;
+    }
+  }
+
+  /**
+   * The gaps between the loaded polygon's corners for cutConvex; returns their count. Gap g is the open s
+   * range gapLo[g] … gapHi[g] between two neighbouring corner values, narrowed until every edge's tolerant
+   * range [lo, hi] either contains it (the edge spans the gap) or lies outside it (hi ≤ gapLo or lo ≥ gapHi):
+   * in effect the corners' s ± 1e-12. A gap that cannot be narrowed so is left empty (gapLo = gapHi). The
+   * spanning edges of gap g, ascending, are gapEdges[gapFirst[g] … gapFirst[g + 1] − 1].
+   */
+  private prepareGaps(): number {
+    const { n, lo, hi, sorted } = this;
+    if (this.gapLo.length < n) {
+      this.gapLo = new Float64Array(2 * n);
+      this.gapHi = new Float64Array(2 * n);
+      this.gapFirst = new Int32Array(2 * n + 1);
+    }
+    if (this.gapEdges.length < n * n) this.gapEdges = new Int32Array(2 * n * n);
+    const { gapLo, gapHi, gapFirst, gapEdges } = this;
+    let nGaps = 0;
+    let ne = 0;
+    for (let c = 0; c + 1 < n; c++) {
+      const x0 = sorted[c];
+      const x1 = sorted[c + 1];
+      if (!(x1 > x0)) continue; // equal corner values: no gap
+      let gl = x0;
+      let gh = x1;
+      gapFirst[nGaps] = ne;
+      for (let i = 0; i < n; i++) {
+        const l = lo[i];
+        const h = hi[i];
+        if (l <= gl && h >= gh) gapEdges[ne++] = i; // spans
+        else if (h <= gl || l >= gh) continue; // outside
+        else if (l <= gl) gl = h; // ends inside the gap: the gap now starts at its end
+        else if (h >= gh) gh = l; // starts inside the gap: the gap now ends at its start
+        else gh = gl; // wholly inside: no fast gap
+        if (!(gl < gh)) {
+          gh = gl;
+          break;
+        }
+      }
+      if (!(gl < gh)) ne = gapFirst[nGaps]; // empty: no spanning edges kept
+      gapLo[nGaps] = gl;
+      gapHi[nGaps] = gh;
+      nGaps++;
+    }
+    gapFirst[nGaps] = ne;
+    return nGaps;
+  }
+
+  /** Makes room for `count` strips in the strip arrays (their contents are not kept). */
+  private growStrips(count: number): void {
+    const c = Math.max(count, this.stripSMin.length * 2);
+    this.stripSMin = new Float64Array(c);
+    this.stripSMax = new Float64Array(c);
+    this.stripVMin = new Float64Array(c);
+    this.stripVMax = new Float64Array(c);
+    this.stripProbe = new Float64Array(c);
+    this.stripBottom = new Int32Array(c);
+    this.stripTop = new Int32Array(c);
   }
 
   /**
@@ -461,6 +662,20 @@ export class StripSlicer {
       }
     }
     slabStart[ns] = nt;
+    if (ns <= 1) {
+      // One slab (no corner strictly inside the strip): each trapezoid is a piece of its own, its own bottom
+      // and top. The general steps below would find just that; their values are written directly, by the
+      // same comparisons (extents grown from ±Infinity, the probe clamped to the trapezoid).
+      for (let i = 0; i < nt; i++) {
+        const s0 = T_S0[i] < Infinity ? T_S0[i] : Infinity;
+        const s1 = T_S1[i] > -Infinity ? T_S1[i] : -Infinity;
+        const lo = T_LO0[i] < T_LO1[i] ? T_LO0[i] : T_LO1[i];
+        const hi = T_HI0[i] > T_HI1[i] ? T_HI0[i] : T_HI1[i];
+        const sMid = (s0 + s1) / 2;
+        this.addPiece(i, s0, s1, lo < Infinity ? lo : Infinity, hi > -Infinity ? hi : -Infinity, T_LOE[i], T_HIE[i], Math.min(Math.max(sMid, T_S0[i]), T_S1[i]));
+      }
+      return nt;
+    }
     // Union-find over trapezoids of neighbouring slabs that touch along their shared line.
     for (let k = 0; k + 1 < ns; k++) {
       const l0 = slabStart[k];
@@ -522,32 +737,39 @@ export class StripSlicer {
       const top = G_TOP[r];
       if (top < 0 || T_HI0[i] + T_HI1[i] > T_HI0[top] + T_HI1[top]) G_TOP[r] = i;
     }
-    // One piece per root, in root order, then sorted by (vMin, sMin) with a stable insertion sort: the same
-    // order as a stable Array.prototype.sort with that comparator.
-    const out = this.pieces;
+    // One piece per root, in root order (see addPiece).
     let count = 0;
     for (let i = 0; i < nt; i++) {
       if (T_PARENT[i] !== i) continue;
       const bottom = G_BOT[i];
       const sMid = (G_S0[i] + G_S1[i]) / 2;
-      if (count === out.length) out.push(newComponent());
-      const c = out[count];
-      c.sMin = G_S0[i];
-      c.sMax = G_S1[i];
-      c.vMin = G_V0[i];
-      c.vMax = G_V1[i];
-      c.bottomEdge = T_LOE[bottom];
-      c.topEdge = T_HIE[G_TOP[i]];
-      c.sProbe = Math.min(Math.max(sMid, T_S0[bottom]), T_S1[bottom]);
-      let j = count - 1;
-      while (j >= 0 && (out[j].vMin - c.vMin || out[j].sMin - c.sMin) > 0) {
-        out[j + 1] = out[j];
-        j--;
-      }
-      out[j + 1] = c;
-      count++;
+      this.addPiece(count++, G_S0[i], G_S1[i], G_V0[i], G_V1[i], T_LOE[bottom], T_HIE[G_TOP[i]], Math.min(Math.max(sMid, T_S0[bottom]), T_S1[bottom]));
     }
     return count;
+  }
+
+  /**
+   * Writes piece number `count` into `pieces` and moves it to its place by (vMin, sMin) with a stable
+   * insertion sort: pieces added in root order end up in the order of a stable Array.prototype.sort with
+   * that comparator.
+   */
+  private addPiece(count: number, sMin: number, sMax: number, vMin: number, vMax: number, bottomEdge: number, topEdge: number, sProbe: number): void {
+    const out = this.pieces;
+    if (count === out.length) out.push(newComponent());
+    const c = out[count];
+    c.sMin = sMin;
+    c.sMax = sMax;
+    c.vMin = vMin;
+    c.vMax = vMax;
+    c.bottomEdge = bottomEdge;
+    c.topEdge = topEdge;
+    c.sProbe = sProbe;
+    let j = count - 1;
+    while (j >= 0 && (out[j].vMin - c.vMin || out[j].sMin - c.sMin) > 0) {
+      out[j + 1] = out[j];
+      j--;
+    }
+    out[j + 1] = c;
   }
 }
 
