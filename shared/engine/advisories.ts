@@ -14,6 +14,21 @@ export type UnderlaymentKind = "self-adhered" | "synthetic" | "felt";
 const pitchText = (p: number) => `${fmt(p, p % 1 === 0 ? 0 : 2)}:12`;
 
 /**
+ * Each item's text, comma-separated: the same as `items.map(term).join(", ")`, written as a loop. With map()
+ * then join() here, V8's check of the mapped array's hidden class failed on every takeoff (a deoptimization
+ * loop seen with node --trace-deopt), so the whole takeoff that had inlined this advisory left optimized code
+ * each run.
+ */
+function listText<T>(items: readonly T[], term: (x: T) => string): string {
+  let s = "";
+  for (let k = 0; k < items.length; k++) s += (k > 0 ? ", " : "") + term(items[k]);
+  return s;
+}
+
+/** `"a", "b"`: each plane's id in quotes. */
+const quotedIds = (planes: readonly { id: string }[]) => listText(planes, (p) => `"${p.id}"`);
+
+/**
  * Code minimum slope for metal roof panels, IRC 2021 R905.10.2 / IBC 1507.4.2: lapped, non-soldered
  * seams without applied lap sealant 3:12; with applied lap sealant 1/2:12; standing seam 1/4:12.
  */
@@ -40,7 +55,7 @@ export function slopeAdvisories(
       advisory(
         "slope-below-code-minimum",
         "error",
-        `The code's minimum slope for ${what} is ${pitchText(code)}; ${belowCode.map((p) => `"${p.id}" is ${pitchText(p.pitch)}`).join(", ")}. ` +
+        `The code's minimum slope for ${what} is ${pitchText(code)}; ${listText(belowCode, (p) => `"${p.id}" is ${pitchText(p.pitch)}`)}. ` +
           "Choose a panel system rated for this slope or change the roof's slope.",
         "IRC 2021 R905.10.2; IBC 2021 1507.4.2",
         belowCode.map((p) => p.id),
@@ -54,7 +69,7 @@ export function slopeAdvisories(
         advisory(
           "slope-below-maker-minimum",
           "warning",
-          `The panel maker's minimum slope is ${pitchText(panel.minPitch)}; ${belowMaker.map((p) => `"${p.id}" is ${pitchText(p.pitch)}`).join(", ")}. ` +
+          `The panel maker's minimum slope is ${pitchText(panel.minPitch)}; ${listText(belowMaker, (p) => `"${p.id}" is ${pitchText(p.pitch)}`)}. ` +
             "Below it the profile can leak and the warranty may not apply: use a profile rated for the slope.",
           "the panel maker's installation instructions",
           belowMaker.map((p) => p.id),
@@ -93,7 +108,7 @@ export function underlaymentAdvisories(
           advisory(
             "underlayment-two-layers-required",
             "warning",
-            `At 140 mph or more, slopes from 2:12 up to 4:12 need two layers of felt (a 19 in starter, then 36 in sheets lapped 19 in): ${twoToFour.map((p) => `"${p.id}"`).join(", ")}.`,
+            `At 140 mph or more, slopes from 2:12 up to 4:12 need two layers of felt (a 19 in starter, then 36 in sheets lapped 19 in): ${quotedIds(twoToFour)}.`,
             "IRC 2021 Table R905.1.1(2)",
             twoToFour.map((p) => p.id),
           ),
@@ -108,7 +123,7 @@ export function underlaymentAdvisories(
         advisory(
           "underlayment-felt-two-layers-recommended",
           "info",
-          `The trade recommends two layers of No. 30 felt under metal from 3:12 up to 4:12: ${threeToFour.map((p) => `"${p.id}"`).join(", ")}.`,
+          `The trade recommends two layers of No. 30 felt under metal from 3:12 up to 4:12: ${quotedIds(threeToFour)}.`,
           "NRCA metal roof manual (as quoted in trade guidance)",
           threeToFour.map((p) => p.id),
         ),
@@ -121,7 +136,7 @@ export function underlaymentAdvisories(
       advisory(
         "underlayment-unsuited-to-slope",
         "warning",
-        `Below 2:12 a mechanically fastened ${kindText} lets water that gets under the panels reach the deck; use a self-adhered membrane on ${low.map((p) => `"${p.id}"`).join(", ")}.`,
+        `Below 2:12 a mechanically fastened ${kindText} lets water that gets under the panels reach the deck; use a self-adhered membrane on ${quotedIds(low)}.`,
         "common practice",
         low.map((p) => p.id),
       ),
@@ -246,7 +261,7 @@ export function fallProtectionAdvisories(planes: { id: string; pitch: number }[]
       advisory(
         "steep-roof-fall-protection",
         "warning",
-        `Steep roof (over 4 in 12): ${steep.map((p) => `"${p.id}"`).join(", ")}. Use guardrails with toeboards, safety nets or personal fall arrest; ` +
+        `Steep roof (over 4 in 12): ${quotedIds(steep)}. Use guardrails with toeboards, safety nets or personal fall arrest; ` +
           "metal panels are slippery, especially when wet, frosted or dusty, and loose panels can slide. Plan anchors and staging before loading the roof.",
         "OSHA 29 CFR 1926.500(b) (steep roof); 1926.501(b)(11)",
         steep.map((p) => p.id),
@@ -264,7 +279,7 @@ export function panelLengthAdvisories(planes: { id: string; longestIn: number }[
       advisory(
         "panel-over-max-length",
         "warning",
-        `Panels longer than ${fmt(maxLengthFt, 0)} ft on ${over.map((p) => `"${p.id}" (${fmt(p.longestIn / 12, 1)} ft)`).join(", ")}: longer than trucks usually carry. ` +
+        `Panels longer than ${fmt(maxLengthFt, 0)} ft on ${listText(over, (p) => `"${p.id}" (${fmt(p.longestIn / 12, 1)} ft)`)}: longer than trucks usually carry. ` +
           "Plan on-site roll-forming, or an end lap or step where the panel maker allows one.",
         "common practice (shipping limit)",
         over.map((p) => p.id),
@@ -277,7 +292,7 @@ export function panelLengthAdvisories(planes: { id: string; longestIn: number }[
       advisory(
         "panel-long-expansion",
         "info",
-        `Panels over ${fmt(longInfoFt, 0)} ft on ${long.map((p) => `"${p.id}"`).join(", ")} move with heat: use floating clips and the maker's expansion details at the ridge and eave.`,
+        `Panels over ${fmt(longInfoFt, 0)} ft on ${quotedIds(long)} move with heat: use floating clips and the maker's expansion details at the ridge and eave.`,
         "common practice",
         long.map((p) => p.id),
       ),
@@ -306,7 +321,7 @@ export function cricketAdvisories(items: { planeId: string; kind: string; widthI
     advisory(
       "cricket-required",
       "warning",
-      `A cricket (saddle) is needed on the high side of each ${wide.map((i) => `${i.kind}${i.id ? ` "${i.id}"` : ""} (${fmt(i.widthIn!, 0)} in wide)`).join(", ")}: ` +
+      `A cricket (saddle) is needed on the high side of each ${listText(wide, (i) => `${i.kind}${i.id ? ` "${i.id}"` : ""} (${fmt(i.widthIn!, 0)} in wide)`)}: ` +
         "penetrations more than 30 in wide across the slope must have one.",
       "IRC 2021 R903.2.2",
       [...new Set(wide.map((i) => i.planeId))],
@@ -328,9 +343,15 @@ export function transitionAdvisory(transitionLf: number, planeIds: string[]): Ad
 }
 
 export function clipSpacingBattenAdvisory(limited: { planeId: string; zones: WindZone[] }[], battenSpacingIn: number): Advisory[] {
-  const hit = limited.filter((l) => l.zones.length);
-  if (!hit.length) return [];
-  const zones = [...new Set(hit.flatMap((l) => l.zones))].sort();
+  const planeIds: string[] = [];
+  const zoneSet = new Set<WindZone>();
+  for (const l of limited) {
+    if (!l.zones.length) continue;
+    planeIds.push(l.planeId);
+    for (const z of l.zones) zoneSet.add(z);
+  }
+  if (!planeIds.length) return [];
+  const zones = Array.from(zoneSet).sort();
   return [
     advisory(
       "clip-spacing-exceeds-battens",
@@ -338,7 +359,7 @@ export function clipSpacingBattenAdvisory(limited: { planeId: string; zones: Win
       `Clips can land only on battens (${fmt(battenSpacingIn, 0)} in apart), but the clip schedule asks for closer spacing in zone ${zones.join(", ")}. ` +
         "The count uses the batten spacing. Add battens at the closer spacing in those zones, or build a solid second deck over sleepers.",
       "common practice; the panel maker's uplift table governs",
-      hit.map((l) => l.planeId),
+      planeIds,
     ),
   ];
 }
@@ -396,7 +417,7 @@ export function windAdvisories(opts: { planes: { id: string; pitch: number }[]; 
       advisory(
         "pitch-beyond-wind-figures",
         "info",
-        `Above 45° (12:12) the roof pressure figures do not apply: ${beyond.map((p) => `"${p.id}"`).join(", ")}. Have a design professional set the attachment (wall pressures may govern).`,
+        `Above 45° (12:12) the roof pressure figures do not apply: ${quotedIds(beyond)}. Have a design professional set the attachment (wall pressures may govern).`,
         "ASCE 7-16 Fig. 30.3-2 series (roof angles up to 45°)",
         beyond.map((p) => p.id),
       ),

@@ -10,6 +10,9 @@ export function fmt(n: number, digits = 1): string {
 
 /** Up to `digits` decimals, trailing zeros dropped (12 → "12", 3.5 → "3.5"). */
 export function num(n: number, digits = 2): string {
+  // Whole numbers under 1,000 (most rule values: 3 in, 10 ft, 48 in) are their own shortest text; toFixed
+  // would round nothing off them.
+  if (Number.isInteger(n) && n < 1000 && n > -1000) return String(n);
   const r = Number(n.toFixed(digits));
   // Under 1,000 the shortest form is already the text (no separator, no exponent after rounding).
   if (Math.abs(r) < 1000) return String(r);

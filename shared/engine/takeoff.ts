@@ -45,13 +45,12 @@ import { climateZoneNumber, computeVentilation } from "./ventilation/index";
 import {
   edgeDistance,
   HIP_ZONE3_MAX_PITCH,
-  type EdgeDistance,
   leastDimensionOfOutlines,
   LOW_SLOPE_MAX_PITCH,
   planeFasteners,
-  WIND_ZONES,
   type PlaneWindZones,
   type WindZone,
+  type ZoneCounts,
   type ZoneModel,
 } from "./wind/zones";
 
@@ -86,6 +85,9 @@ export function computeTakeoffQuantities(input: unknown): TakeoffOutcome<Takeoff
   return computeTakeoffParsed(parsed.data, { detail: "quantities" });
 }
 
+/** The store of panel pieces the per-plane passes reuse (see RoofContext.panelScratch). */
+const PANEL_SCRATCH = new PanelPieces(64);
+
 /** "full": each plane's whole detail (PlaneResult); "quantities": its quantities only (PlaneQuantities). */
 export type TakeoffDetail = "full" | "quantities";
 
@@ -94,6 +96,16 @@ export interface TakeoffOptions {
   planeIds?: readonly string[];
   /** What each plane's entry holds; default "full". */
   detail?: TakeoffDetail;
+}
+
+/**
+ * Appends a list's items, in order. A loop rather than push(...list): the spread's hidden-class check in V8
+ * failed on every takeoff here (a deoptimization loop, seen with node --trace-deopt), throwing the whole
+ * computeTakeoffParsed out of optimized code each run. For the same reason the lists this function reads again
+ * are built with loops, not map() or filter().
+ */
+function addAll<T>(to: T[], list: readonly T[]): void {
+  for (let k = 0; k < list.length; k++) to.push(list[k]);
 }
 
 /** The distinct values of a list, in first-seen order. */
@@ -109,7 +121,7 @@ function unique<T>(xs: readonly T[]): T[] {
 }
 
 /** Materials are listed in the order of MATERIAL_KEYS. */
-const MATERIAL_RANK = new Map(Object.keys(MATERIAL_KEYS).map((k, i) => [k, i]));
+const MATERIAL_RANK = Object.fromEntries(Object.keys(MATERIAL_KEYS).map((k, i) => [k, i])) as Record<MaterialKey, number>;
 
 const zeroZone = (): ZoneFasteners => ({ clips: 0, clipScrews: 0, panelScrews: 0, lineFt: 0, areaSqFt: 0 });
 
@@ -163,25 +175,52 @@ function edgeVAt(g: PlaneGeometry, edge: number, s: number): number {
   return a[1] + ((s - a[0]) * (b[1] - a[1])) / (b[0] - a[0]);
 }
 
-function edgeTypeAtPanelEnd(g: PlaneGeometry, pieces: EdgePiece[], single: (EdgeType | null)[], edge: number, s: number): EdgeType | undefined {
-  const t = single[edge];
-  if (t) return t; // the edge is one piece
+/** The type of the edge piece a panel end at local s meets on outline edge `edge` (an edge of several pieces). */
+function edgeTypeAtPanelEnd(g: PlaneGeometry, pieces: EdgePiece[], edge: number, s: number): EdgeType | undefined {
   const p = toPlan(g, s, edgeVAt(g, edge, s));
   return pieceAt(pieces, edge, p)?.type;
 }
 
-/** Per outline edge: its type when it is a single piece, else null (look the piece up by position). */
-function singlePieceTypes(g: PlaneGeometry, pieces: EdgePiece[]): (EdgeType | null)[] {
-  const out: (EdgeType | null)[] = new Array(g.edges.length).fill(null);
-  const count = new Array(g.edges.length).fill(0);
-  for (const pc of pieces) count[pc.edgeIndex]++;
-  for (const pc of pieces) if (count[pc.edgeIndex] === 1) out[pc.edgeIndex] = pc.type;
-  return out;
+/**
+ * Per outline edge, what a panel end on it needs for closures, as codes in two scratch arrays: 1 when the
+ * edge is one piece of the type asked for (an eave for `eave`, a ridge or hip for `top`), 0 when it is one
+ * piece of another type (or has no piece), -1 when it has several pieces (look the piece up by position).
+ * Codes instead of types so that the per-panel loop compares small integers and allocates nothing.
+ */
+const closureEdgeScratch = { count: new Int32Array(16), eave: new Int8Array(16), top: new Int8Array(16) };
+function closureEdgeCodes(nEdges: number, pieces: EdgePiece[]): { eave: Int8Array; top: Int8Array } {
+  const sc = closureEdgeScratch;
+  if (sc.count.length < nEdges) {
+    sc.count = new Int32Array(nEdges * 2);
+    sc.eave = new Int8Array(nEdges * 2);
+    sc.top = new Int8Array(nEdges * 2);
+  }
+  const { count, eave, top } = sc;
+  // A plain loop: a plane has a handful of edges, too few for fill()'s call to pay.
+  for (let e = 0; e < nEdges; e++) {
+    count[e] = 0;
+    eave[e] = 0;
+    top[e] = 0;
+  }
+  for (let k = 0; k < pieces.length; k++) count[pieces[k].edgeIndex]++;
+  for (let k = 0; k < pieces.length; k++) {
+    const pc = pieces[k];
+    const e = pc.edgeIndex;
+    if (count[e] === 1) {
+      eave[e] = pc.type === "eave" ? 1 : 0;
+      top[e] = pc.type === "ridge" || pc.type === "hip" ? 1 : 0;
+    } else {
+      eave[e] = -1;
+      top[e] = -1;
+    }
+  }
+  return sc;
 }
 
 /** What the per-plane passes add up across the job (rounded once, in the materials). */
 interface JobSums {
-  longestByPlane: Map<number, number>;
+  /** Longest panel (in) per plane index (entries only for the planes computed). */
+  longestByPlane: Float64Array;
   /** The roof's totals, added plane by plane in plane order. */
   slopedAreaSqFt: number;
   squares: number;
@@ -212,8 +251,8 @@ interface JobSums {
   lowSlopeWithoutHeight: string[];
 }
 
-const newJobSums = (): JobSums => ({
-  longestByPlane: new Map(),
+const newJobSums = (planeCount: number): JobSums => ({
+  longestByPlane: new Float64Array(planeCount),
   slopedAreaSqFt: 0,
   squares: 0,
   panelCount: 0,
@@ -243,6 +282,28 @@ const newJobSums = (): JobSums => ({
   lowSlopeWithoutHeight: [],
 });
 
+/** The clip spacing and screw rates of one assembly: the stack's own values, else the job's rules. */
+interface FastenerRates {
+  clipSpacingIn: { field: number; edge: number; corner: number };
+  screwsPerSquare: { field: number; edge: number; corner: number };
+}
+
+function fastenerRatesOf(stack: StackInput, rules: TakeoffInput["rules"]): FastenerRates {
+  const po = stack.panel;
+  return {
+    clipSpacingIn: {
+      field: po.clipSpacingIn.field ?? rules.clips.spacingIn.field,
+      edge: po.clipSpacingIn.edge ?? rules.clips.spacingIn.edge,
+      corner: po.clipSpacingIn.corner ?? rules.clips.spacingIn.corner,
+    },
+    screwsPerSquare: {
+      field: po.screwsPerSquare.field ?? rules.exposedFastener.screwsPerSquare.field,
+      edge: po.screwsPerSquare.edge ?? rules.exposedFastener.screwsPerSquare.edge,
+      corner: po.screwsPerSquare.corner ?? rules.exposedFastener.screwsPerSquare.corner,
+    },
+  };
+}
+
 /** The roof-wide facts each plane's pass reads. */
 interface RoofContext {
   input: TakeoffInput;
@@ -250,17 +311,34 @@ interface RoofContext {
   planeStacks: StackInput[];
   /** Edge pieces per plane, typed against the whole roof. */
   byPlane: EdgePiece[][];
-  ed: EdgeDistance;
-  h: number | null;
   hipRoof: boolean;
   panelScratch: PanelPieces;
   channelOf: (s: StackInput) => ChannelResult;
+  /** Clip spacing and screw rates per assembly, worked out on the first plane that uses it. */
+  ratesOf: (s: StackInput) => FastenerRates;
+  /**
+   * The roof's zone models: one for low-slope planes (when the mean roof height is known), and the steep one
+   * with zone 3 kept or read as zone 2 (a hip roof's planes up to HIP_ZONE3_MAX_PITCH). Shared by every plane:
+   * planeFasteners only reads them.
+   */
+  lowSlopeModel: ZoneModel | null;
+  steepModel: ZoneModel;
+  steepZone3AsZone2Model: ZoneModel;
   detail: TakeoffDetail;
+}
+
+/** Adds one plane's counts in a wind zone to the job's. */
+function addZone(dst: ZoneFasteners, src: ZoneCounts, screwsPerClip: number): void {
+  dst.clips += src.clips;
+  dst.clipScrews += src.clips * screwsPerClip;
+  dst.panelScrews += src.panelScrews;
+  dst.lineFt += src.lineFt;
+  dst.areaSqFt += src.areaSqFt;
 }
 
 /** One plane's takeoff; its quantities are also added to the job's sums. */
 function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult | PlaneQuantities {
-  const { input, geoms, planeStacks, ed, h, hipRoof } = ctx;
+  const { input, geoms, planeStacks, hipRoof } = ctx;
   const { site, rules } = input;
   const screwsPerClip = rules.clips.screwsPerClip;
   const g = geoms[i];
@@ -274,84 +352,90 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
     hemAllowanceIn: panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn,
     into: ctx.panelScratch,
   });
-  sums.longestByPlane.set(i, panels.longestIn);
+  sums.longestByPlane[i] = panels.longestIn;
   sums.slopedAreaSqFt += g.slopedAreaSqFt;
   sums.squares += g.squares;
   sums.panelCount += panels.count;
   sums.panelLengthFt += panels.totalLengthFt;
   sums.offcutSqFt += panels.offcutSqFt;
   const pKey: MaterialKey = panelOpts.system === "standing-seam" ? "panel-standing-seam" : "panel-exposed-fastener";
-  const pl = sums.panelLf.get(pKey) ?? { lf: 0, count: 0 };
+  let pl = sums.panelLf.get(pKey);
+  if (!pl) {
+    pl = { lf: 0, count: 0 };
+    sums.panelLf.set(pKey, pl);
+  }
   pl.lf += panels.totalLengthFt;
   pl.count += panels.count;
-  sums.panelLf.set(pKey, pl);
 
   // Wind zones and fasteners.
   let model: ZoneModel;
-  if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9 && h !== null) model = { kind: "low-slope", aFt: ed.aFt, h, zone3AsZone2: false };
+  if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9 && ctx.lowSlopeModel !== null) model = ctx.lowSlopeModel;
   else {
     if (g.pitch <= LOW_SLOPE_MAX_PITCH + 1e-9) sums.lowSlopeWithoutHeight.push(g.id);
-    model = { kind: "steep", aFt: ed.aFt, zone3AsZone2: hipRoof && g.pitch <= HIP_ZONE3_MAX_PITCH + 1e-9 };
+    model = hipRoof && g.pitch <= HIP_ZONE3_MAX_PITCH + 1e-9 ? ctx.steepZone3AsZone2Model : ctx.steepModel;
   }
   const sp = stack.spacer;
   const battenSpacingIn = sp.kind === "battens" && panelOpts.system === "standing-seam" ? sp.battens.spacingIn : null;
+  const rates = ctx.ratesOf(stack);
   const wz: PlaneWindZones = planeFasteners(g, pieces, panels, {
     system: panelOpts.system,
     model,
-    clipSpacingIn: {
-      field: panelOpts.clipSpacingIn.field ?? rules.clips.spacingIn.field,
-      edge: panelOpts.clipSpacingIn.edge ?? rules.clips.spacingIn.edge,
-      corner: panelOpts.clipSpacingIn.corner ?? rules.clips.spacingIn.corner,
-    },
-    screwsPerSquare: {
-      field: panelOpts.screwsPerSquare.field ?? rules.exposedFastener.screwsPerSquare.field,
-      edge: panelOpts.screwsPerSquare.edge ?? rules.exposedFastener.screwsPerSquare.edge,
-      corner: panelOpts.screwsPerSquare.corner ?? rules.exposedFastener.screwsPerSquare.corner,
-    },
+    clipSpacingIn: rates.clipSpacingIn,
+    screwsPerSquare: rates.screwsPerSquare,
     battenSpacingIn,
   });
   if (battenSpacingIn && wz.spacingLimitedByBattens.length) sums.clipLimited.push({ planeId: g.id, zones: wz.spacingLimitedByBattens, battenSpacingIn });
   sums.clips += wz.clips;
   sums.clipScrews += wz.clips * screwsPerClip;
   sums.panelScrewsExact += wz.panelScrews;
-  for (const z of WIND_ZONES) {
-    const src = wz.zones[z];
-    sums.zones[z].clips += src.clips;
-    sums.zones[z].clipScrews += src.clips * screwsPerClip;
-    sums.zones[z].panelScrews += src.panelScrews;
-    sums.zones[z].lineFt += src.lineFt;
-    sums.zones[z].areaSqFt += src.areaSqFt;
-  }
+  // Zone by zone, each named outright (a property read by a fixed name is cheaper than by a variable key).
+  addZone(sums.zones["1'"], wz.zones["1'"], screwsPerClip);
+  addZone(sums.zones["1"], wz.zones["1"], screwsPerClip);
+  addZone(sums.zones["2"], wz.zones["2"], screwsPerClip);
+  addZone(sums.zones["3"], wz.zones["3"], screwsPerClip);
 
-  // Closures at the panel ends.
+  // Closures at the panel ends: one per panel end at an eave, and at a ridge or hip.
   const ch = ctx.channelOf(stack);
   const vented = gapVentilated(stack, ch);
-  const single = singlePieceTypes(g, pieces);
+  const codes = closureEdgeCodes(g.edges.length, pieces);
+  const eaveCode = codes.eave;
+  const topCode = codes.top;
   const pp = panels.pieces;
+  let eaveEnds = 0;
+  let topEnds = 0;
   for (let n = 0; n < pp.count; n++) {
-    const bottom = edgeTypeAtPanelEnd(g, pieces, single, pp.bottomEdge(n), pp.sProbe(n));
-    const top = edgeTypeAtPanelEnd(g, pieces, single, pp.topEdge(n), pp.sProbe(n));
-    if (bottom === "eave") {
-      if (vented) sums.closureVented++;
-      else sums.closureEave++;
+    const be = pp.bottomEdge(n);
+    const bc = eaveCode[be];
+    if (bc === 1 || (bc === -1 && edgeTypeAtPanelEnd(g, pieces, be, pp.sProbe(n)) === "eave")) eaveEnds++;
+    const te = pp.topEdge(n);
+    const tc = topCode[te];
+    if (tc === 1) topEnds++;
+    else if (tc === -1) {
+      const top = edgeTypeAtPanelEnd(g, pieces, te, pp.sProbe(n));
+      if (top === "ridge" || top === "hip") topEnds++;
     }
-    if (top === "ridge" || top === "hip") {
-      if (vented) sums.closureVented++;
-      else sums.closureRidge++;
-    }
+  }
+  if (vented) sums.closureVented += eaveEnds + topEnds;
+  else {
+    sums.closureEave += eaveEnds;
+    sums.closureRidge += topEnds;
   }
 
   // Layers.
   const uKey = underlaymentKey(stack);
-  const u = sums.underl.get(uKey) ?? { area: 0, layered: 0, layers: new Set<number>() };
+  let u = sums.underl.get(uKey);
+  if (!u) {
+    u = { area: 0, layered: 0, layers: new Set<number>() };
+    sums.underl.set(uKey, u);
+  }
   u.area += g.slopedAreaSqFt;
   u.layered += g.slopedAreaSqFt * stack.underlayment.layers;
   u.layers.add(stack.underlayment.layers);
-  sums.underl.set(uKey, u);
 
   let ice: PlaneResult["layers"]["iceBarrier"] = null;
   const wantsIce = stack.underlayment.iceBarrier ?? site.iceDamRisk === true;
-  const eaveLf = pieces.filter((pc) => pc.type === "eave").reduce((t, pc) => t + pc.trueLengthFt, 0);
+  let eaveLf = 0;
+  for (let k = 0; k < pieces.length; k++) if (pieces[k].type === "eave") eaveLf += pieces[k].trueLengthFt;
   if (wantsIce && eaveLf > 0) {
     const widthIn = iceBarrierWidthIn(plane.eaveOverhangIn, g.pitch, site.codeEdition, rules.iceBarrier.insideWallIn);
     if (stack.underlayment.kind === "self-adhered") {
@@ -372,20 +456,26 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   let dimpledSqFt = 0;
   if (sp.kind === "battens") {
     const rows = battenTotals(g, sp.battens.spacingIn, rules.battens.fastenerSpacingIn);
-    const b = sums.battenLf.get(sp.battens.nominal) ?? { lf: 0, rows: 0 };
+    let b = sums.battenLf.get(sp.battens.nominal);
+    if (!b) {
+      b = { lf: 0, rows: 0 };
+      sums.battenLf.set(sp.battens.nominal, b);
+    }
     b.lf += rows.lf;
     b.rows += rows.rows;
-    sums.battenLf.set(sp.battens.nominal, b);
     sums.spacerFasteners += rows.fasteners;
     battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
     if (sp.battens.counterBattens) {
       const nominal = sp.battens.counterBattenNominal ?? sp.battens.nominal;
       const spacing = sp.battens.counterBattenSpacingIn ?? rules.battens.counterBattenSpacingIn;
       const cr = counterBattenTotals(g, spacing, rules.battens.fastenerSpacingIn);
-      const c = sums.counterLf.get(nominal) ?? { lf: 0, runs: 0 };
+      let c = sums.counterLf.get(nominal);
+      if (!c) {
+        c = { lf: 0, runs: 0 };
+        sums.counterLf.set(nominal, c);
+      }
       c.lf += cr.lf;
       c.runs += cr.rows;
-      sums.counterLf.set(nominal, c);
       sums.spacerFasteners += cr.fasteners;
       counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
     }
@@ -401,11 +491,18 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   const deckSqFt = deckAreaToReplace(g.slopedAreaSqFt, stack.deck.action, stack.deck.repairSharePct);
   sums.deckArea += deckSqFt;
 
-  for (const pen of plane.penetrations) sums.penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
+  const pens = plane.penetrations;
+  for (let k = 0; k < pens.length; k++) {
+    const pen = pens[k];
+    sums.penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
+  }
 
   if (ctx.detail === "quantities") {
     const edges: EdgeQuantities[] = [];
-    for (const pc of pieces) edges.push({ index: pc.edgeIndex, type: pc.type, planLengthFt: pc.planLengthFt, trueLengthFt: pc.trueLengthFt });
+    for (let k = 0; k < pieces.length; k++) {
+      const pc = pieces[k];
+      edges.push({ index: pc.edgeIndex, type: pc.type, planLengthFt: pc.planLengthFt, trueLengthFt: pc.trueLengthFt });
+    }
     return {
       id: g.id,
       name: plane.name,
@@ -419,19 +516,13 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
       panels: { count: panels.count, lengthsIn: panels.lengthsIn, cutList: panels.cutList, longestIn: panels.longestIn },
     };
   }
-  return {
-    id: g.id,
-    name: plane.name,
-    stackId: stack.id,
-    pitch: g.pitch,
-    angleDeg: slopeAngleDeg(g.pitch),
-    slopeFactor: g.slopeFactor,
-    planAreaSqFt: g.planAreaSqFt,
-    slopedAreaSqFt: g.slopedAreaSqFt,
-    squares: g.squares,
-    vertices: g.outline.map((p, k) => ({ x: p[0], y: p[1], z: g.heights[k] })),
-    eaveEdge: g.eaveEdge,
-    edges: pieces.map((pc) => ({
+  const outline = g.outline;
+  const vertices: PlaneResult["vertices"] = [];
+  for (let k = 0; k < outline.length; k++) vertices.push({ x: outline[k][0], y: outline[k][1], z: g.heights[k] });
+  const edges: PlaneResult["edges"] = [];
+  for (let k = 0; k < pieces.length; k++) {
+    const pc = pieces[k];
+    edges.push({
       index: pc.edgeIndex,
       part: pc.part,
       type: pc.type,
@@ -443,7 +534,21 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
       to: [pc.to[0], pc.to[1]],
       planLengthFt: pc.planLengthFt,
       trueLengthFt: pc.trueLengthFt,
-    })),
+    });
+  }
+  return {
+    id: g.id,
+    name: plane.name,
+    stackId: stack.id,
+    pitch: g.pitch,
+    angleDeg: slopeAngleDeg(g.pitch),
+    slopeFactor: g.slopeFactor,
+    planAreaSqFt: g.planAreaSqFt,
+    slopedAreaSqFt: g.slopedAreaSqFt,
+    squares: g.squares,
+    vertices,
+    eaveEdge: g.eaveEdge,
+    edges,
     panels: {
       system: panelOpts.system,
       coverageWidthIn: panels.coverageWidthIn,
@@ -507,18 +612,30 @@ function materialLines(m: {
     const exact = (iceMembraneLf * (1 + w.iceBarrierPct / 100)) / perRoll;
     const rolls = ceilTol(exact);
     // Planes with the same width and courses are one term (a large roof would otherwise list every plane).
-    const groups = new Map<string, { ids: string[]; eaveLf: number; courses: number; widthIn: number }>();
+    // Keyed by width, then courses (numbers, not a text key per plane); groups listed in order of first plane.
+    const byWidth = new Map<number, Map<number, { ids: string[]; eaveLf: number; courses: number; widthIn: number }>>();
+    const groups: { ids: string[]; eaveLf: number; courses: number; widthIn: number }[] = [];
     for (const p of icePlanes) {
-      const key = `${p.widthIn}|${p.courses}`;
-      const gr = groups.get(key);
+      let byCourses = byWidth.get(p.widthIn);
+      if (!byCourses) {
+        byCourses = new Map();
+        byWidth.set(p.widthIn, byCourses);
+      }
+      const gr = byCourses.get(p.courses);
       if (gr) {
         gr.ids.push(p.id);
         gr.eaveLf += p.eaveLf;
-      } else groups.set(key, { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn });
+      } else {
+        const added = { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn };
+        byCourses.set(p.courses, added);
+        groups.push(added);
+      }
     }
-    const detail = Array.from(groups.values())
-      .map((gr) => `${gr.ids.length === 1 ? gr.ids[0] : `${gr.ids.length} planes`}: ${fmt(gr.eaveLf)} ft eave × ${gr.courses} ${plural(gr.courses, "course")} (${fmt(gr.widthIn)} in up the slope)`)
-      .join("; ");
+    const terms: string[] = [];
+    for (const gr of groups) {
+      terms.push(`${gr.ids.length === 1 ? gr.ids[0] : `${gr.ids.length} planes`}: ${fmt(gr.eaveLf)} ft eave × ${gr.courses} ${plural(gr.courses, "course")} (${fmt(gr.widthIn)} in up the slope)`);
+    }
+    const detail = terms.join("; ");
     lines.push(
       materialLine(
         "ice-barrier",
@@ -527,8 +644,14 @@ function materialLines(m: {
       ),
     );
   }
-  if (meshArea > 0) lines.push(materialLine("spacer-mesh", rollsFor(meshArea, w.meshPct, rules.mesh).rolls, rollsFor(meshArea, w.meshPct, rules.mesh).basis));
-  if (dimpledArea > 0) lines.push(materialLine("spacer-dimpled", rollsFor(dimpledArea, w.dimpledPct, rules.dimpled).rolls, rollsFor(dimpledArea, w.dimpledPct, rules.dimpled).basis));
+  if (meshArea > 0) {
+    const r = rollsFor(meshArea, w.meshPct, rules.mesh);
+    lines.push(materialLine("spacer-mesh", r.rolls, r.basis));
+  }
+  if (dimpledArea > 0) {
+    const r = rollsFor(dimpledArea, w.dimpledPct, rules.dimpled);
+    lines.push(materialLine("spacer-dimpled", r.rolls, r.basis));
+  }
   const stock = rules.battens.stockLengthFt;
   for (const [nominal, v] of battenLf) {
     const pcs = battenPieces(v.lf, w.battensPct, stock);
@@ -569,18 +692,36 @@ function materialLines(m: {
   }
   // Trim by type: pieces per run, summed.
   const edgeOrder: EdgeType[] = ["eave", "rake", "ridge", "hip", "valley", "sidewall", "headwall", "transition"];
+  // The runs of each type, in run order, in one pass.
+  const runsOfType = new Map<EdgeType, TrimRunCount[]>();
+  for (const r of trimRuns) {
+    const list = runsOfType.get(r.type);
+    if (list) list.push(r);
+    else runsOfType.set(r.type, [r]);
+  }
   for (const t of edgeOrder) {
-    const rs = trimRuns.filter((r) => r.type === t);
-    if (!rs.length) continue;
-    const pieces = rs.reduce((s, r) => s + r.pieces, 0);
+    const rs = runsOfType.get(t);
+    if (!rs) continue;
+    let pieces = 0;
+    for (const r of rs) pieces += r.pieces;
     const qty = ceilTol(pieces * (1 + w.trimPct / 100));
-    // Equal runs are one term: "4 × 36 ft → 4" (four runs of 36 ft, 4 pieces each).
-    const same = new Map<string, number>();
+    // Equal runs are one term: "4 × 36 ft → 4" (four runs of 36 ft, 4 pieces each). Runs are first counted by
+    // their exact length (a run's pieces follow from its length), and each distinct length is written once; two
+    // lengths that print alike then merge into one term, in the order their first run came.
+    const byLength = new Map<number, { run: TrimRunCount; n: number }>();
     for (const r of rs) {
-      const key = `${fmt(r.lengthFt)} ft → ${r.pieces}`;
-      same.set(key, (same.get(key) ?? 0) + 1);
+      const e = byLength.get(r.lengthFt);
+      if (e) e.n++;
+      else byLength.set(r.lengthFt, { run: r, n: 1 });
     }
-    const list = Array.from(same, ([key, n]) => (n > 1 ? `${n} × ${key}` : key)).join(", ");
+    const same = new Map<string, number>();
+    for (const { run, n } of byLength.values()) {
+      const key = `${fmt(run.lengthFt)} ft → ${run.pieces}`;
+      same.set(key, (same.get(key) ?? 0) + n);
+    }
+    const terms: string[] = [];
+    for (const [key, n] of same) terms.push(n > 1 ? `${n} × ${key}` : key);
+    const list = terms.join(", ");
     lines.push(
       materialLine(
         TRIM_KEY_BY_EDGE[t],
@@ -700,7 +841,7 @@ function materialLines(m: {
       lines.push(materialLine("vent-intake", q, `eaves ${fmt(vent.result.intakeLf)} lf → ${q} lf`));
     }
   }
-  lines.sort((a, b) => MATERIAL_RANK.get(a.key)! - MATERIAL_RANK.get(b.key)!);
+  lines.sort((a, b) => MATERIAL_RANK[a.key] - MATERIAL_RANK[b.key]);
   return { lines, deckSheets, panelScrews };
 }
 
@@ -715,7 +856,8 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     if (isGeometryError(g)) return g;
     geoms.push(g);
   }
-  const stacksById = new Map(input.stacks.map((s) => [s.id, s]));
+  const stacksById = new Map<string, StackInput>();
+  for (const s of input.stacks) stacksById.set(s.id, s);
   const defaultStack = stacksById.get(input.defaultStackId);
   if (!defaultStack) return { ok: false, reason: `Unknown assembly "${input.defaultStackId}"`, path: ["defaultStackId"] };
   const planeStacks: StackInput[] = [];
@@ -727,11 +869,13 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   }
   const scope = opts.planeIds ? new Set(opts.planeIds) : null;
   const inScope = (i: number) => !scope || scope.has(input.planes[i].id);
-  const scoped = geoms.map((_, i) => i).filter(inScope);
+  const scoped: number[] = [];
+  for (let i = 0; i < geoms.length; i++) if (inScope(i)) scoped.push(i);
   if (!scoped.length) return { ok: false, reason: "None of the chosen planes is on this roof", path: ["planeIds"] };
 
   // ---- edges (typed against the whole roof) -------------------------------------------------------------
-  const overrides = input.planes.map((p) => (Object.keys(p.edgeTypes).length ? p.edgeTypes : null));
+  const overrides: (Record<string, EdgeType> | null)[] = [];
+  for (const p of input.planes) overrides.push(Object.keys(p.edgeTypes).length ? p.edgeTypes : null);
   const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e]);
   const advisories: Advisory[] = [];
   let edgeTotals: EdgeTotals = edgesAll.totals;
@@ -744,28 +888,43 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     runs = buildRuns(byPlane);
     edgeTotals = edgeTotalsOf(byPlane);
   }
-  const scopedIds = new Set(scoped.map((i) => input.planes[i].id));
-  advisories.push(...edgesAll.advisories.filter((a) => a.planeIds.some((id) => scopedIds.has(id))));
+  // The ids of the computed planes, as a set built on first use (most roofs raise no edge advisory and have no
+  // transition to look up).
+  let scopedIds: Set<string> | null = null;
+  const isScopedId = (id: string) => {
+    if (!scopedIds) {
+      scopedIds = new Set<string>();
+      for (const i of scoped) scopedIds.add(input.planes[i].id);
+    }
+    return scopedIds.has(id);
+  };
+  for (const a of edgesAll.advisories) if (a.planeIds.some(isScopedId)) advisories.push(a);
 
   // ---- wind ------------------------------------------------------------------------------------------
   const lGiven = site.wind.leastHorizontalDimensionFt;
-  const L = lGiven ?? leastDimensionOfOutlines(geoms.map((g) => g.outline));
+  let L: number;
+  if (lGiven !== undefined) L = lGiven;
+  else {
+    const outlines: PlaneGeometry["outline"][] = [];
+    for (const g of geoms) outlines.push(g.outline);
+    L = leastDimensionOfOutlines(outlines);
+  }
   const h = site.wind.meanRoofHeightFt ?? null;
   const ed = edgeDistance(L, h);
   const hipRoof = edgesAll.totals.hipLf > 0;
 
   // ---- per plane --------------------------------------------------------------------------------------
   const channels = new Map<string, ChannelResult>();
+  const rates = new Map<StackInput, FastenerRates>();
   const ctx: RoofContext = {
     input,
     geoms,
     planeStacks,
     byPlane: edgesAll.byPlane,
-    ed,
-    h,
     hipRoof,
-    // Only the longest panel is kept past each plane's pass, so one store of panel pieces serves every plane.
-    panelScratch: new PanelPieces(64),
+    // Only the longest panel is kept past each plane's pass, so one store of panel pieces serves every plane
+    // (and every takeoff: the engine runs one takeoff at a time, synchronously).
+    panelScratch: PANEL_SCRATCH,
     channelOf: (s: StackInput) => {
       let c = channels.get(s.id);
       if (!c) {
@@ -774,30 +933,63 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       }
       return c;
     },
+    ratesOf: (s: StackInput) => {
+      let r = rates.get(s);
+      if (!r) {
+        r = fastenerRatesOf(s, rules);
+        rates.set(s, r);
+      }
+      return r;
+    },
+    lowSlopeModel: h !== null ? { kind: "low-slope", aFt: ed.aFt, h, zone3AsZone2: false } : null,
+    steepModel: { kind: "steep", aFt: ed.aFt, zone3AsZone2: false },
+    steepZone3AsZone2Model: { kind: "steep", aFt: ed.aFt, zone3AsZone2: true },
     detail: opts.detail ?? "full",
   };
-  const sums = newJobSums();
-  const planeResults = scoped.map((i) => takeoffPlane(ctx, i, sums));
+  const sums = newJobSums(input.planes.length);
+  const planeResults: (PlaneResult | PlaneQuantities)[] = [];
+  for (const i of scoped) planeResults.push(takeoffPlane(ctx, i, sums));
   const { channelOf } = ctx;
   const { longestByPlane, zones, clips, clipScrews, spacerFasteners, planesWithoutIce, clipLimited, penetrations } = sums;
 
   // ---- trim ------------------------------------------------------------------------------------------
   const trimRuns = countTrimRuns(runs, rules.trim.stockLengthFt, rules.trim.endLapIn, rules.trim.fastenerSpacingIn);
-  const trimFasteners = trimRuns.reduce((t, r) => t + r.fasteners, 0);
-  const trimLaps = trimRuns.reduce((t, r) => t + r.laps, 0);
+  let trimFasteners = 0;
+  let trimLaps = 0;
+  for (const r of trimRuns) {
+    trimFasteners += r.fasteners;
+    trimLaps += r.laps;
+  }
 
   // ---- stacks: channel and thermal --------------------------------------------------------------------
   const stackResults: StackResult[] = [];
   const thermalAdvisories: Advisory[] = [];
+  // The computed planes of each assembly (by id), in plane order: one pass instead of a filter per assembly.
+  const planesOfStack = new Map<string, number[]>();
+  for (const i of scoped) {
+    const sid = planeStacks[i].id;
+    const list = planesOfStack.get(sid);
+    if (list) list.push(i);
+    else planesOfStack.set(sid, [i]);
+  }
   for (const s of input.stacks) {
-    const planeIdx = scoped.filter((i) => planeStacks[i].id === s.id);
-    if (!planeIdx.length) continue;
-    const ids = planeIdx.map((i) => geoms[i].id);
+    const planeIdx = planesOfStack.get(s.id);
+    if (!planeIdx) continue;
+    const ids: string[] = [];
+    const pitches: { id: string; pitch: number }[] = [];
+    let plan = 0;
+    let sloped = 0;
+    // Pitch for the air-space table: the assembly's largest plane (the first of equals).
+    let main = planeIdx[0];
+    for (const i of planeIdx) {
+      const g = geoms[i];
+      ids.push(g.id);
+      pitches.push({ id: g.id, pitch: g.pitch });
+      plan += g.planAreaSqFt;
+      sloped += g.slopedAreaSqFt;
+      if (g.slopedAreaSqFt > geoms[main].slopedAreaSqFt) main = i;
+    }
     const ch = channelOf(s);
-    const plan = planeIdx.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
-    const sloped = planeIdx.reduce((t, i) => t + geoms[i].slopedAreaSqFt, 0);
-    // Pitch for the air-space table: the assembly's largest plane.
-    const main = planeIdx.reduce((m, i) => (geoms[i].slopedAreaSqFt > geoms[m].slopedAreaSqFt ? i : m), planeIdx[0]);
     const rb = s.radiantBarrier;
     const facesGap = rb.kind === "foil" ? foilFacesGap(rb.position, rb.reflectiveFace, ch.gapIn) : false;
     const th = computeThermal({
@@ -812,7 +1004,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
       coolRoofRequired: site.coolRoofRequired,
       planeIds: ids,
     });
-    thermalAdvisories.push(...th.advisories);
+    addAll(thermalAdvisories, th.advisories);
     stackResults.push({
       id: s.id,
       name: s.name ?? null,
@@ -826,23 +1018,30 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     });
 
     // Assembly advisories.
-    const pitches = planeIdx.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
-    advisories.push(...slopeAdvisories(pitches, { system: s.panel.system, lapSealant: s.panel.lapSealant, minPitch: s.panel.minPitch }));
-    advisories.push(...underlaymentAdvisories(s.underlayment, pitches, site.wind.basicWindSpeedMph));
-    advisories.push(...foilAdvisory({ foil: rb.kind === "foil", facesGap, gapIn: ch.gapIn, position: rb.position, face: rb.reflectiveFace, planeIds: ids }));
-    advisories.push(...gapTooThinAdvisory({ atticType: site.atticType, kind: s.spacer.kind, gapIn: ch.gapIn, claimed: s.ventilation.aboveDeckClaimed, planeIds: ids }));
-    advisories.push(...ratedAssemblyAdvisory({ required: site.wind.ratedAssemblyRequired, spacerKind: s.spacer.kind, planeIds: ids }));
+    addAll(advisories, slopeAdvisories(pitches, { system: s.panel.system, lapSealant: s.panel.lapSealant, minPitch: s.panel.minPitch }));
+    addAll(advisories, underlaymentAdvisories(s.underlayment, pitches, site.wind.basicWindSpeedMph));
+    addAll(advisories, foilAdvisory({ foil: rb.kind === "foil", facesGap, gapIn: ch.gapIn, position: rb.position, face: rb.reflectiveFace, planeIds: ids }));
+    addAll(advisories, gapTooThinAdvisory({ atticType: site.atticType, kind: s.spacer.kind, gapIn: ch.gapIn, claimed: s.ventilation.aboveDeckClaimed, planeIds: ids }));
+    addAll(advisories, ratedAssemblyAdvisory({ required: site.wind.ratedAssemblyRequired, spacerKind: s.spacer.kind, planeIds: ids }));
     if (s.spacer.kind === "battens") {
-      advisories.push(...treatedLumberAdvisory({ treated: s.spacer.battens.treated, substrate: s.panel.substrate, planeIds: ids }));
+      addAll(advisories, treatedLumberAdvisory({ treated: s.spacer.battens.treated, substrate: s.panel.substrate, planeIds: ids }));
     }
   }
   const dominant = stackResults.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt + 1e-9 ? s : m), stackResults[0]);
   const dominantStack = stacksById.get(dominant.id)!;
 
   // ---- ventilation (the roof as one vented space) -------------------------------------------------------
-  const scopedPlaneIds = scoped.map((i) => geoms[i].id);
-  const planArea = scoped.reduce((t, i) => t + geoms[i].planAreaSqFt, 0);
-  const ridgeRuns = runs.filter((r) => r.type === "ridge");
+  const scopedPlaneIds: string[] = [];
+  const scopedPlanes: { id: string; pitch: number }[] = [];
+  let planArea = 0;
+  for (const i of scoped) {
+    const g = geoms[i];
+    scopedPlaneIds.push(g.id);
+    scopedPlanes.push({ id: g.id, pitch: g.pitch });
+    planArea += g.planAreaSqFt;
+  }
+  const ridgeRuns: EdgeRun[] = [];
+  for (const r of runs) if (r.type === "ridge") ridgeRuns.push(r);
   const vent = computeVentilation({
     site: {
       atticType: site.atticType,
@@ -868,35 +1067,43 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   });
 
   // ---- roof-wide advisories ---------------------------------------------------------------------------
-  const scopedPlanes = scoped.map((i) => ({ id: geoms[i].id, pitch: geoms[i].pitch }));
-  advisories.push(
-    ...iceBarrierAdvisories({
+  addAll(
+    advisories,
+    iceBarrierAdvisories({
       iceDamRisk: site.iceDamRisk,
       climateZoneNumber: climateZoneNumber(site.climateZone),
       planesWithout: planesWithoutIce,
       allPlaneIds: scopedPlaneIds,
     }),
   );
-  const maxLengthByPlane = scoped.map((i) => ({ id: geoms[i].id, longestIn: longestByPlane.get(i)!, max: planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt }));
-  const maxFts = unique(maxLengthByPlane.map((p) => p.max));
-  for (const mx of maxFts) {
-    advisories.push(
-      ...panelLengthAdvisories(
-        maxLengthByPlane.filter((p) => p.max === mx),
-        mx,
-        Math.min(rules.panels.longPanelInfoFt, mx),
-      ),
-    );
+  // The planes grouped by their assembly's longest panel allowed, groups in order of first plane.
+  const byMaxLength = new Map<number, { id: string; longestIn: number }[]>();
+  for (const i of scoped) {
+    const max = planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt;
+    const entry = { id: geoms[i].id, longestIn: longestByPlane[i] };
+    const list = byMaxLength.get(max);
+    if (list) list.push(entry);
+    else byMaxLength.set(max, [entry]);
   }
-  advisories.push(...reroofAdvisory(site.existingLayers, site.tearOff));
-  advisories.push(...cricketAdvisories(penetrations));
-  const transitionPlanes = unique(runs.filter((r) => r.type === "transition").flatMap((r) => r.planeIds)).filter((id) => scopedIds.has(id));
-  advisories.push(...transitionAdvisory(edgeTotals.transitionLf, transitionPlanes));
-  const battenSpacings = unique(clipLimited.map((c) => c.battenSpacingIn));
-  for (const bs of battenSpacings) advisories.push(...clipSpacingBattenAdvisory(clipLimited.filter((c) => c.battenSpacingIn === bs), bs));
-  advisories.push(...fallProtectionAdvisories(scopedPlanes));
-  advisories.push(...windAdvisories({ planes: scopedPlanes, heightMissing: ed.heightMissing, lowSlopeWithoutHeight: sums.lowSlopeWithoutHeight, aFt: ed.aFt }));
-  advisories.push(...vent.advisories, ...thermalAdvisories);
+  for (const [mx, planes] of byMaxLength) addAll(advisories, panelLengthAdvisories(planes, mx, Math.min(rules.panels.longPanelInfoFt, mx)));
+  addAll(advisories, reroofAdvisory(site.existingLayers, site.tearOff));
+  addAll(advisories, cricketAdvisories(penetrations));
+  const transitionIds: string[] = [];
+  for (const r of runs) if (r.type === "transition") addAll(transitionIds, r.planeIds);
+  const transitionPlanes = unique(transitionIds).filter(isScopedId);
+  addAll(advisories, transitionAdvisory(edgeTotals.transitionLf, transitionPlanes));
+  // The planes whose clips the battens limit, grouped by batten spacing in order of first plane.
+  const byBattenSpacing = new Map<number, JobSums["clipLimited"]>();
+  for (const c of clipLimited) {
+    const list = byBattenSpacing.get(c.battenSpacingIn);
+    if (list) list.push(c);
+    else byBattenSpacing.set(c.battenSpacingIn, [c]);
+  }
+  for (const [bs, limited] of byBattenSpacing) addAll(advisories, clipSpacingBattenAdvisory(limited, bs));
+  addAll(advisories, fallProtectionAdvisories(scopedPlanes));
+  addAll(advisories, windAdvisories({ planes: scopedPlanes, heightMissing: ed.heightMissing, lowSlopeWithoutHeight: sums.lowSlopeWithoutHeight, aFt: ed.aFt }));
+  addAll(advisories, vent.advisories);
+  addAll(advisories, thermalAdvisories);
 
   // ---- materials (rounded once, here) -----------------------------------------------------------------
   const { lines, deckSheets, panelScrews } = materialLines({ rules, sums, edgeTotals, trimRuns, trimLaps, trimFasteners, vent, ridgeRuns, dominantStack });
@@ -936,15 +1143,54 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   return { ok: true, result };
 }
 
+/**
+ * Drops repeated advisories, keeping the first: two are the same when `${code}|${planeIds}|${message}` is the
+ * same text. Then orders them errors, warnings, infos, each kind in the order raised.
+ */
 function dedupe(list: Advisory[]): Advisory[] {
-  const seen = new Set<string>();
-  const out: Advisory[] = [];
+  // Building and hashing that key for every advisory is costly (messages run to a thousand characters, plane
+  // lists to hundreds of ids), so advisories are bucketed by the key's length, worked out without building it.
+  // Within a bucket, equal codes, messages and plane lists mean an equal key; only a same-length pair that
+  // differs in them has its key texts built and compared (the "|" and "," could then fall elsewhere).
+  const byLength = new Map<number, Advisory[]>();
+  const errors: Advisory[] = [];
+  const warnings: Advisory[] = [];
+  const infos: Advisory[] = [];
   for (const a of list) {
-    const key = `${a.code}|${a.planeIds.join(",")}|${a.message}`;
-    if (seen.has(key)) continue;
-    seen.add(key);
-    out.push(a);
+    const len = a.code.length + joinedLength(a.planeIds) + a.message.length + 2;
+    let bucket = byLength.get(len);
+    if (!bucket) {
+      bucket = [];
+      byLength.set(len, bucket);
+    }
+    let seen = false;
+    for (const b of bucket) {
+      if ((b.code === a.code && b.message === a.message && sameStrings(b.planeIds, a.planeIds)) || dedupeKey(b) === dedupeKey(a)) {
+        seen = true;
+        break;
+      }
+    }
+    if (seen) continue;
+    bucket.push(a);
+    // A stable sort by severity keeps the order raised within each kind: the same as three lists in turn.
+    if (a.severity === "error") errors.push(a);
+    else if (a.severity === "warning") warnings.push(a);
+    else infos.push(a);
   }
-  const rank = { error: 0, warning: 1, info: 2 } as const;
-  return out.map((a, i) => ({ a, i })).sort((x, y) => rank[x.a.severity] - rank[y.a.severity] || x.i - y.i).map((x) => x.a);
+  return errors.concat(warnings, infos);
+}
+
+const dedupeKey = (a: Advisory) => `${a.code}|${a.planeIds.join(",")}|${a.message}`;
+
+/** Length of `ids.join(",")`, without joining. */
+function joinedLength(ids: string[]): number {
+  let n = ids.length > 0 ? ids.length - 1 : 0;
+  for (const id of ids) n += id.length;
+  return n;
+}
+
+function sameStrings(a: string[], b: string[]): boolean {
+  if (a.length !== b.length) return false;
+  for (let k = 0; k < a.length; k++) if (a[k] !== b[k]) return false;
+  return true;
 }

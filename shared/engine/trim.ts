@@ -46,10 +46,14 @@ export interface TrimRunCount {
 }
 
 export function countTrimRuns(runs: EdgeRun[], stockLengthFt: number, endLapIn: number, fastenerSpacingIn: number): TrimRunCount[] {
-  return runs.map((r) => {
+  // A loop, not runs.map(): arrays that map() built, read again in the takeoff's optimized code, failed V8's
+  // hidden-class check on every run there (a deoptimization loop, seen with node --trace-deopt).
+  const out: TrimRunCount[] = [];
+  for (const r of runs) {
     const pieces = trimPieces(r.lengthFt, stockLengthFt, endLapIn);
-    return { type: r.type, lengthFt: r.lengthFt, pieces, fasteners: trimFastenersForRun(r.lengthFt, fastenerSpacingIn), laps: Math.max(0, pieces - 1) };
-  });
+    out.push({ type: r.type, lengthFt: r.lengthFt, pieces, fasteners: trimFastenersForRun(r.lengthFt, fastenerSpacingIn), laps: Math.max(0, pieces - 1) });
+  }
+  return out;
 }
 
 /** Width across the slope above which IRC R903.2.2 asks for a cricket, inches. */

@@ -21,7 +21,7 @@ export const STANDARD_WHITE = { reflectance: 0.8, emittance: 0.9 } as const;
 
 /** Steady-state surface temperature (K) of a surface in the E1980 conditions. */
 export function surfaceTemperatureK(reflectance: number, emittance: number, hc: number = HC_MEDIUM): number {
-  if (![reflectance, emittance, hc].every(Number.isFinite)) throw new RangeError("SRI inputs must be finite");
+  if (!Number.isFinite(reflectance) || !Number.isFinite(emittance) || !Number.isFinite(hc)) throw new RangeError("SRI inputs must be finite");
   const alpha = 1 - Math.min(Math.max(reflectance, 0), 1);
   const eps = Math.min(Math.max(emittance, 0), 1);
   const f = (t: number) => eps * STEFAN_BOLTZMANN * (t ** 4 - SKY_K ** 4) + hc * (t - AMBIENT_K) - alpha * SOLAR_FLUX;
@@ -36,11 +36,30 @@ export function surfaceTemperatureK(reflectance: number, emittance: number, hc: 
   return t;
 }
 
+/**
+ * The standard black's and white's temperatures depend on the wind coefficient alone: each solve is kept for
+ * its hc (a handful of values in practice: low, medium and high wind), so an SRI costs one solve, not three.
+ */
+const standardTemps = new Map<number, { tb: number; tw: number }>();
+function standardTemperaturesK(hc: number): { tb: number; tw: number } {
+  let t = standardTemps.get(hc);
+  if (!t) {
+    t = {
+      tb: surfaceTemperatureK(STANDARD_BLACK.reflectance, STANDARD_BLACK.emittance, hc),
+      tw: surfaceTemperatureK(STANDARD_WHITE.reflectance, STANDARD_WHITE.emittance, hc),
+    };
+    // Bounded: an odd caller passing many coefficients cannot grow it without limit.
+    if (standardTemps.size >= 16) standardTemps.clear();
+    standardTemps.set(hc, t);
+  }
+  return t;
+}
+
 /** Solar Reflectance Index (dimensionless; can be below 0 or above 100). */
 export function solarReflectanceIndex(reflectance: number, emittance: number, hc: number = HC_MEDIUM): number {
-  const tb = surfaceTemperatureK(STANDARD_BLACK.reflectance, STANDARD_BLACK.emittance, hc);
-  const tw = surfaceTemperatureK(STANDARD_WHITE.reflectance, STANDARD_WHITE.emittance, hc);
+  // The input checks come first, as they did when the standards were solved on every call.
   const ts = surfaceTemperatureK(reflectance, emittance, hc);
+  const { tb, tw } = standardTemperaturesK(hc);
   return (100 * (tb - ts)) / (tb - tw);
 }
 
