@@ -91,15 +91,6 @@ export interface EdgeRun {
   pieces: EdgePiece[];
 }
 
-interface Overlap {
-  t0: number;
-  t1: number;
-  planeIdx: number;
-  edgeIndex: number;
-  /** The partner edge's row in the edge table. */
-  row: number;
-}
-
 type Overrides = (planeIdx: number, edgeIndex: number) => EdgeType | undefined;
 
 const param = (p: Pt, a: Pt, b: Pt) => {
@@ -108,8 +99,6 @@ const param = (p: Pt, a: Pt, b: Pt) => {
   const len = Math.hypot(dx, dy);
   return ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / len;
 };
-
-const lerp = (a: Pt, b: Pt, t: number, len: number): Pt => [a[0] + ((b[0] - a[0]) * t) / len, a[1] + ((b[1] - a[1]) * t) / len];
 
 /**
  * The edges of all planes as columns of numbers, for the overlap search. Row r is the r-th edge in input
@@ -143,6 +132,52 @@ class EdgeTable {
   /** Plane indexes sorted by px0, then the sweep's active planes. */
   planeOrder = new Int32Array(0);
   planeActive = new Int32Array(0);
+  /** First edge row of each plane (rowStart[p] … rowStart[p + 1] − 1), and each row's side (falls / level / rises). */
+  rowStart = new Int32Array(0);
+  sides = new Int8Array(0);
+  /**
+   * The overlaps found, one entry per edge of each overlapping pair, in the order found: the row it belongs
+   * to, the overlap as distances t0 < t1 along that edge, and the partner edge's row. `ovList` then holds the
+   * entries row by row (row r's from ovStart[r] to ovStart[r + 1]), each row's in its partners' sweep order.
+   * Numbers in columns rather than an object and a list per overlap: no allocation per overlap.
+   */
+  nOv = 0;
+  ovRow = new Int32Array(64);
+  ovT0 = new Float64Array(64);
+  ovT1 = new Float64Array(64);
+  ovPartner = new Int32Array(64);
+  ovList = new Int32Array(64);
+  ovStart = new Int32Array(0);
+
+  /** Room for one more overlap entry (doubling, keeping the entries so far). */
+  growOv(): void {
+    const c = this.ovRow.length * 2;
+    const grow32 = (a: Int32Array) => {
+      const b = new Int32Array(c);
+      b.set(a);
+      return b;
+    };
+    const grow64 = (a: Float64Array) => {
+      const b = new Float64Array(c);
+      b.set(a);
+      return b;
+    };
+    this.ovRow = grow32(this.ovRow);
+    this.ovT0 = grow64(this.ovT0);
+    this.ovT1 = grow64(this.ovT1);
+    this.ovPartner = grow32(this.ovPartner);
+    this.ovList = new Int32Array(c);
+  }
+
+  /** Add an overlap entry to `row`'s. */
+  addOv(row: number, t0: number, t1: number, partner: number): void {
+    if (this.nOv === this.ovRow.length) this.growOv();
+    const e = this.nOv++;
+    this.ovRow[e] = row;
+    this.ovT0[e] = t0;
+    this.ovT1[e] = t1;
+    this.ovPartner[e] = partner;
+  }
 
   reserve(rows: number, planes: number): void {
     if (rows > this.ax.length) {
@@ -161,6 +196,8 @@ class EdgeTable {
       this.y1 = new Float64Array(c);
       this.plane = new Int32Array(c);
       this.edge = new Int32Array(c);
+      this.sides = new Int8Array(c);
+      this.ovStart = new Int32Array(c + 1);
     }
     if (planes > this.px0.length) {
       const c = Math.max(planes, this.px0.length * 2, 16);
@@ -170,14 +207,15 @@ class EdgeTable {
       this.py1 = new Float64Array(c);
       this.planeOrder = new Int32Array(c);
       this.planeActive = new Int32Array(c);
+      this.rowStart = new Int32Array(c + 1);
     }
   }
 }
 const table = new EdgeTable();
 
 /**
- * Find collinear overlaps between edges of different planes. Returns, per row of the edge table, that
- * edge's overlaps or null.
+ * Find collinear overlaps between edges of different planes: afterwards row r's overlaps are the entries
+ * ovList[ovStart[r]] … ovList[ovStart[r + 1] − 1] of the edge table (`table.rowStart` filled for `planes`).
  *
  * The results are defined by a sweep over all edges sorted by x0 (ties in input order): an edge is
  * compared with each earlier one whose box overlaps its own, and each overlap is worked out from the line
@@ -187,11 +225,11 @@ const table = new EdgeTable();
  * fewer planes), then their edges pairwise; which edge of a pair is `cur` comes from comparing the two
  * edges' sort keys, and each edge's (short) list is put in its partners' sweep order at the end.
  */
-function findOverlaps(planes: PlaneGeometry[], rowStart: Int32Array): (Overlap[] | null)[] {
+function findOverlaps(planes: PlaneGeometry[]): void {
   const T = table;
   const nPlanes = planes.length;
+  const { rowStart } = T;
   const m = rowStart[nPlanes];
-  T.reserve(m, nPlanes);
   const { ax, ay, bx, by, dx, dy, hyp, len, x0, x1, y0, y1, plane, edge, px0, px1, py0, py1, planeOrder, planeActive } = T;
   for (let p = 0, r = 0; p < nPlanes; p++) {
     const edges = planes[p].edges;
@@ -230,7 +268,7 @@ function findOverlaps(planes: PlaneGeometry[], rowStart: Int32Array): (Overlap[]
   }
   planeOrder.subarray(0, nPlanes).sort((i, j) => px0[i] - px0[j] || i - j);
 
-  const out: (Overlap[] | null)[] = new Array(m).fill(null);
+  T.nOv = 0;
   // Sweep over the planes by px0: each plane against the earlier ones whose boxes overlap its own.
   let nActive = 0;
   for (let s = 0; s < nPlanes; s++) {
@@ -250,28 +288,36 @@ function findOverlaps(planes: PlaneGeometry[], rowStart: Int32Array): (Overlap[]
         for (let j = rowStart[o]; j < rowStart[o + 1]; j++) {
           if (len[j] <= TOL) continue;
           // The later of the two in the sweep order is `cur`.
-          if (x0[i] < x0[j] || (x0[i] === x0[j] && i < j)) overlapPair(j, i, out);
-          else overlapPair(i, j, out);
+          if (x0[i] < x0[j] || (x0[i] === x0[j] && i < j)) overlapPair(j, i);
+          else overlapPair(i, j);
         }
       }
     }
     planeActive[nActive++] = c;
   }
-  // Each list in its partners' sweep order (insertion sort: lists hold one or two overlaps).
+  // The entries row by row (a counting sort), then each row's in its partners' sweep order (insertion sort:
+  // a row has one or two; an edge meets each partner once, so the keys differ).
+  const { nOv, ovRow, ovPartner, ovList, ovStart } = T;
+  for (let r = 0; r <= m; r++) ovStart[r] = 0;
+  for (let e = 0; e < nOv; e++) ovStart[ovRow[e] + 1]++;
+  for (let r = 0; r < m; r++) ovStart[r + 1] += ovStart[r];
+  // ovStart[r] is used as row r's fill point, then shifted back to its start.
+  for (let e = 0; e < nOv; e++) ovList[ovStart[ovRow[e]]++] = e;
+  for (let r = m; r > 0; r--) ovStart[r] = ovStart[r - 1];
+  ovStart[0] = 0;
   for (let r = 0; r < m; r++) {
-    const l = out[r];
-    if (l === null || l.length < 2) continue;
-    for (let i = 1; i < l.length; i++) {
-      const o = l[i];
+    const lo = ovStart[r], hi = ovStart[r + 1];
+    for (let i = lo + 1; i < hi; i++) {
+      const o = ovList[i];
+      const or = ovPartner[o];
       let j = i - 1;
-      while (j >= 0 && (x0[l[j].row] > x0[o.row] || (x0[l[j].row] === x0[o.row] && l[j].row > o.row))) {
-        l[j + 1] = l[j];
+      while (j >= lo && (x0[ovPartner[ovList[j]]] > x0[or] || (x0[ovPartner[ovList[j]]] === x0[or] && ovPartner[ovList[j]] > or))) {
+        ovList[j + 1] = ovList[j];
         j--;
       }
-      l[j + 1] = o;
+      ovList[j + 1] = o;
     }
   }
-  return out;
 }
 
 /**
@@ -279,8 +325,8 @@ function findOverlaps(planes: PlaneGeometry[], rowStart: Int32Array): (Overlap[]
  * when their boxes overlap, both lie on one line (each end within TOL of the other edge's line) and they
  * share more than TOL of it, add the overlap to both edges' lists.
  */
-function overlapPair(c: number, o: number, out: (Overlap[] | null)[]): void {
-  const { ax, ay, bx, by, dx, dy, hyp, len, x0, x1, y0, y1, plane, edge } = table;
+function overlapPair(c: number, o: number): void {
+  const { ax, ay, bx, by, dx, dy, hyp, len, x0, x1, y0, y1 } = table;
   // Box overlap (o starts no later than c in x).
   if (x1[o] < x0[c] || y1[o] < y0[c] || y1[c] < y0[o]) return;
   const cax = ax[c], cay = ay[c], cdx = dx[c], cdy = dy[c], chyp = hyp[c];
@@ -297,19 +343,13 @@ function overlapPair(c: number, o: number, out: (Overlap[] | null)[]): void {
   const lo = Math.max(0, Math.min(u0, u1));
   const hi = Math.min(lenA, Math.max(u0, u1));
   if (hi - lo <= TOL) return;
-  push(out, c, { t0: lo, t1: hi, planeIdx: plane[o], edgeIndex: edge[o], row: o });
+  table.addOv(c, lo, hi, o);
   // The overlap's end points on this edge, as distances along the other one.
   const pax = cax + (cdx * lo) / lenA, pay = cay + (cdy * lo) / lenA;
   const pbx = cax + (cdx * hi) / lenA, pby = cay + (cdy * hi) / lenA;
   const w0 = ((pax - oax) * odx + (pay - oay) * ody) / ohyp;
   const w1 = ((pbx - oax) * odx + (pby - oay) * ody) / ohyp;
-  push(out, o, { t0: Math.max(0, Math.min(w0, w1)), t1: Math.min(len[o], Math.max(w0, w1)), planeIdx: plane[c], edgeIndex: edge[c], row: c });
-}
-
-function push(out: (Overlap[] | null)[], row: number, o: Overlap): void {
-  const l = out[row];
-  if (l) l.push(o);
-  else out[row] = [o];
+  table.addOv(o, Math.max(0, Math.min(w0, w1)), Math.min(len[o], Math.max(w0, w1)), c);
 }
 
 /** Which way a plane goes from an edge: falls, level or rises. */
@@ -367,23 +407,56 @@ export interface EdgeAnalysis {
 let cuts = new Float64Array(16);
 
 /**
+ * The point `t` along the edge from a to b (of length len), a + (b − a)·t ∕ len per coordinate. When those
+ * numbers are the very ones of `a` or of `b` (a piece starting or ending at the edge's corner mostly gives
+ * them), that corner's pair itself rather than a copy: the same numbers, as unsplit pieces already share
+ * their edge's corner pairs.
+ */
+function pointAlong(a: Pt, b: Pt, t: number, len: number): Pt {
+  const x = a[0] + ((b[0] - a[0]) * t) / len;
+  const y = a[1] + ((b[1] - a[1]) * t) / len;
+  // Object.is, not ===: +0 and −0 are different numbers here (a −0 corner plus 0 gives +0).
+  if (Object.is(x, a[0]) && Object.is(y, a[1])) return a;
+  if (Object.is(x, b[0]) && Object.is(y, b[1])) return b;
+  return [x, y];
+}
+
+/**
+ * One plane's pieces are gathered here, then copied out with slice() at their exact count (push from []
+ * reserves room for 17 at once; a plane has a handful). Entries past the current plane's are left over.
+ */
+const planePieces: EdgePiece[] = [];
+
+/** Put `v` at `i` of a scratch list (i ≤ its length, so the list stays packed). */
+function put<T>(list: T[], i: number, v: T): void {
+  if (i < list.length) list[i] = v;
+  else list.push(v);
+}
+
+/**
  * Split and type the edges of all planes. `overrides(planeIdx, edgeIndex)` gives the user's type for an
  * edge, if any; on a shared piece the override of the plane that comes first wins, then the other's.
  * Takes the planes as `planeGeometry` builds them: `edges[i].index === i`, and `planLengthFt` is
- * Math.hypot of the edge's plan vector.
+ * Math.hypot of the edge's plan vector. The tables here are shared by every call, so `overrides` must not
+ * call analyseEdges or buildRuns itself.
  */
 export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () => undefined): EdgeAnalysis {
   const nPlanes = planes.length;
+  const T = table;
   // First edge row of each plane in the edge table, and each edge's side (falls / level / rises).
-  const rowStart = new Int32Array(nPlanes + 1);
+  let m = 0;
+  for (let p = 0; p < nPlanes; p++) m += planes[p].edges.length;
+  T.reserve(m, nPlanes);
+  const { rowStart, sides } = T;
+  rowStart[0] = 0;
   for (let p = 0; p < nPlanes; p++) rowStart[p + 1] = rowStart[p] + planes[p].edges.length;
-  const m = rowStart[nPlanes];
-  const sides = new Int8Array(m);
   for (let p = 0, r = 0; p < nPlanes; p++) {
     const g = planes[p];
-    for (const ed of g.edges) sides[r++] = side(g, ed.from, ed.to);
+    const edges = g.edges;
+    for (let k = 0; k < edges.length; k++) sides[r++] = side(g, edges[k].from, edges[k].to);
   }
-  const overlaps = findOverlaps(planes, rowStart);
+  findOverlaps(planes);
+  const { ovList, ovStart, ovT0, ovT1, ovPartner, plane: planeOfRow, edge: edgeOfRow } = T;
   const byPlane: EdgePiece[][] = [];
   const advisories: Advisory[] = [];
   // Plane pairs already warned about, as lo × nPlanes + hi.
@@ -392,20 +465,23 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
 
   for (let p = 0; p < nPlanes; p++) {
     const g = planes[p];
-    const pieces: EdgePiece[] = [];
-    byPlane.push(pieces);
+    const pieces = planePieces;
+    let nPieces = 0;
     const edges = g.edges;
     for (let k = 0; k < edges.length; k++) {
       const ed = edges[k];
-      const mine = sides[rowStart[p] + k];
+      const row = rowStart[p] + k;
+      const mine = sides[row];
       const len = ed.planLengthFt;
-      const ov = overlaps[rowStart[p] + k];
-      if (ov === null) {
+      // This edge's overlaps: ovList[ov0] … ovList[ov1 − 1].
+      const ov0 = ovStart[row];
+      const ov1 = ovStart[row + 1];
+      if (ov0 === ov1) {
         const horizontal = Math.abs(ed.z1 - ed.z0) <= TOL;
         const computedType = typeUnshared(horizontal, mine);
         const over = overrides(p, ed.index);
         const type = over ?? computedType;
-        pieces.push({
+        put(pieces, nPieces++, {
           planeIdx: p,
           planeId: g.id,
           edgeIndex: ed.index,
@@ -429,13 +505,13 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
       }
       // Cut the edge at 0, len and both ends of every overlap, sorted (insertion sort: a handful of
       // numbers), merging cuts closer than TOL to the last one kept.
-      const nc = 2 + 2 * ov.length;
+      const nc = 2 + 2 * (ov1 - ov0);
       if (cuts.length < nc) cuts = new Float64Array(nc * 2);
       cuts[0] = 0;
       cuts[1] = len;
-      for (let i = 0; i < ov.length; i++) {
-        cuts[2 + 2 * i] = ov[i].t0;
-        cuts[3 + 2 * i] = ov[i].t1;
+      for (let i = ov0, c = 2; i < ov1; i++, c += 2) {
+        cuts[c] = ovT0[ovList[i]];
+        cuts[c + 1] = ovT1[ovList[i]];
       }
       for (let i = 1; i < nc; i++) {
         const x = cuts[i];
@@ -455,21 +531,27 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         const t0 = cuts[i];
         const t1 = cuts[i + 1];
         const tm = (t0 + t1) / 2;
-        // The piece is shared with the first overlap that holds its midpoint.
-        let partner: Overlap | null = null;
-        for (let j = 0; j < ov.length && !partner; j++) if (ov[j].t0 - 1e-9 <= tm && tm <= ov[j].t1 + 1e-9) partner = ov[j];
-        const from = lerp(ed.from, ed.to, t0, len);
-        const to = lerp(ed.from, ed.to, t1, len);
+        // The piece is shared with the first overlap that holds its midpoint (an entry, or −1).
+        let partner = -1;
+        for (let j = ov0; j < ov1; j++) {
+          const e = ovList[j];
+          if (ovT0[e] - 1e-9 <= tm && tm <= ovT1[e] + 1e-9) {
+            partner = e;
+            break;
+          }
+        }
+        const from = pointAlong(ed.from, ed.to, t0, len);
+        const to = pointAlong(ed.from, ed.to, t1, len);
         const z0 = heightAt(g, from);
         const z1 = heightAt(g, to);
         const plan = t1 - t0;
         const trueLengthFt = hypot2(plan, z1 - z0);
         const horizontal = Math.abs(z1 - z0) <= TOL;
-        if (partner === null) {
+        if (partner === -1) {
           const computedType = typeUnshared(horizontal, mine);
           const over = overrides(p, ed.index);
           const type = over ?? computedType;
-          pieces.push({
+          put(pieces, nPieces++, {
             planeIdx: p,
             planeId: g.id,
             edgeIndex: ed.index,
@@ -491,16 +573,18 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
           addToTotals(totals, type, trueLengthFt);
           continue;
         }
-        const qi = partner.planeIdx;
+        const partnerRow = ovPartner[partner];
+        const qi = planeOfRow[partnerRow];
+        const qEdge = edgeOfRow[partnerRow];
         const q = planes[qi];
-        const theirs = sides[partner.row];
+        const theirs = sides[partnerRow];
         const first = p < qi;
         // Type from the first plane's view of horizontality so both sides agree.
         const horizontalForType = first ? horizontal : Math.abs(heightAt(q, from) - heightAt(q, to)) <= TOL;
         const computedType = typeShared(horizontalForType, mine, theirs);
-        const over = first ? overrides(p, ed.index) ?? overrides(qi, partner.edgeIndex) : overrides(qi, partner.edgeIndex) ?? overrides(p, ed.index);
+        const over = first ? overrides(p, ed.index) ?? overrides(qi, qEdge) : overrides(qi, qEdge) ?? overrides(p, ed.index);
         const type = over ?? computedType;
-        pieces.push({
+        put(pieces, nPieces++, {
           planeIdx: p,
           planeId: g.id,
           edgeIndex: ed.index,
@@ -513,7 +597,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
           z1,
           horizontal,
           shared: true,
-          partner: { planeIdx: qi, planeId: q.id, edgeIndex: partner.edgeIndex },
+          partner: { planeIdx: qi, planeId: q.id, edgeIndex: qEdge },
           computedType,
           type,
           overridden: over !== undefined,
@@ -538,6 +622,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         }
       }
     }
+    byPlane.push(pieces.slice(0, nPieces));
   }
 
   return { byPlane, totals, runs: buildRuns(byPlane), advisories };
@@ -573,6 +658,21 @@ class RunScratch {
   nextEnd = new Int32Array(0);
   cellKey = new Int32Array(0);
   cellHead = new Int32Array(0);
+  /** Per root piece its group number (−1: none yet); per piece its group; per group its size and start. */
+  groupOfRoot = new Int32Array(0);
+  group = new Int32Array(0);
+  groupSize = new Int32Array(0);
+  groupStart = new Int32Array(0);
+  /**
+   * The counted pieces, then the same pieces grouped (group by group, input order within each), the plane
+   * ids of one run and the runs: lists the results are copied out of with slice(), which makes an array
+   * exactly as long as its contents (push from [] reserves room for 17 entries at once, and most runs hold
+   * one piece and one or two ids). Entries past the current roof's are left from earlier calls.
+   */
+  pieces: EdgePiece[] = [];
+  grouped: EdgePiece[] = [];
+  ids: string[] = [];
+  runs: EdgeRun[] = [];
   bits = 0;
 
   reserve(n: number): void {
@@ -583,6 +683,10 @@ class RunScratch {
       this.type = new Int8Array(c);
       this.parent = new Int32Array(c);
       this.nextEnd = new Int32Array(c * 2);
+      this.groupOfRoot = new Int32Array(c);
+      this.group = new Int32Array(c);
+      this.groupSize = new Int32Array(c);
+      this.groupStart = new Int32Array(c);
     }
     // At most 2n cells; keep the table at most a quarter full so probes stay short.
     let bits = 6;
@@ -612,10 +716,13 @@ const runScratch = new RunScratch();
  * found in does not matter; runs come in the order of their first piece, pieces in input order.
  */
 export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
-  const pieces: EdgePiece[] = [];
-  for (const ps of byPlane) for (const p of ps) if (p.counted) pieces.push(p);
-  const n = pieces.length;
   const S = runScratch;
+  const pieces = S.pieces;
+  let n = 0;
+  for (let k = 0; k < byPlane.length; k++) {
+    const ps = byPlane[k];
+    for (let i = 0; i < ps.length; i++) if (ps[i].counted) put(pieces, n++, ps[i]);
+  }
   S.reserve(n);
   const { ends, dir, type, parent, nextEnd, cellKey, cellHead } = S;
   const find = (i: number): number => {
@@ -697,37 +804,55 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
       cellHead[s] = end;
     }
   }
-  // Groups by root, in the order their first piece comes.
-  const groupOf: EdgePiece[][] = new Array(n);
-  const order: EdgePiece[][] = [];
+  // Groups by root, numbered in the order their first piece comes; then the pieces placed group by group
+  // (a counting sort: input order within each group).
+  const { groupOfRoot, group, groupSize, groupStart, grouped, ids, runs } = S;
+  for (let i = 0; i < n; i++) groupOfRoot[i] = -1;
+  let nGroups = 0;
   for (let i = 0; i < n; i++) {
     const r = find(i);
-    const g = groupOf[r];
-    if (g) g.push(pieces[i]);
-    else order.push((groupOf[r] = [pieces[i]]));
+    let g = groupOfRoot[r];
+    if (g === -1) {
+      g = groupOfRoot[r] = nGroups++;
+      groupSize[g] = 0;
+    }
+    group[i] = g;
+    groupSize[g]++;
   }
-  const runs: EdgeRun[] = [];
-  for (let k = 0; k < order.length; k++) {
-    const g = order[k];
-    const ids: string[] = [];
+  for (let g = 0, at = 0; g < nGroups; g++) {
+    groupStart[g] = at;
+    at += groupSize[g];
+  }
+  // `grouped` is written at any index below n: first make it that long (packed), with any piece.
+  while (grouped.length < n) grouped.push(pieces[0]);
+  for (let i = 0; i < n; i++) grouped[groupStart[group[i]]++] = pieces[i];
+  // groupStart[g] is now the end of group g.
+  for (let g = 0; g < nGroups; g++) {
+    const end = groupStart[g];
+    const start = end - groupSize[g];
+    let nIds = 0;
     let len = 0;
     let plan = 0;
-    for (let i = 0; i < g.length; i++) {
-      const p = g[i];
-      addId(ids, p.planeId);
-      if (p.partner) addId(ids, p.partner.planeId);
+    for (let i = start; i < end; i++) {
+      const p = grouped[i];
+      nIds = addId(ids, nIds, p.planeId);
+      if (p.partner) nIds = addId(ids, nIds, p.partner.planeId);
       len += p.trueLengthFt;
       plan += p.planLengthFt;
     }
-    runs.push({ type: g[0].type, lengthFt: len, planLengthFt: plan, planeIds: ids, pieces: g });
+    put(runs, g, { type: grouped[start].type, lengthFt: len, planLengthFt: plan, planeIds: ids.slice(0, nIds), pieces: grouped.slice(start, end) });
   }
-  return runs;
+  return runs.slice(0, nGroups);
 }
 
-/** Append a plane id unless the list has it (a plain loop: the lists hold one or a few ids). */
-function addId(ids: string[], id: string): void {
-  for (let i = 0; i < ids.length; i++) if (ids[i] === id) return;
-  ids.push(id);
+/**
+ * Add a plane id to the first `nIds` entries of `ids` unless they have it (a plain loop: a run touches one or
+ * a few planes); returns the new count.
+ */
+function addId(ids: string[], nIds: number, id: string): number {
+  for (let i = 0; i < nIds; i++) if (ids[i] === id) return nIds;
+  put(ids, nIds, id);
+  return nIds + 1;
 }
 
 /** Find the piece of a plane's edge that contains a plan point (nearest along the edge). */
