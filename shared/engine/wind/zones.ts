@@ -208,11 +208,28 @@ function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Flo
       }
     }
   }
-  return intervalFull(px, py, dx, dy, v, o, r, out, i);
+  const q = FULL_ARGS;
+  q[0] = px;
+  q[1] = py;
+  q[2] = dx;
+  q[3] = dy;
+  q[4] = r;
+  return intervalFull(q, v, o, out, i);
 }
 
-/** intervalPrepared without its fast case: the disks and the two slabs, always. */
-function intervalFull(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
+/**
+ * intervalFull's number arguments px, py, dx, dy, r, passed in this scratch array: V8 does not inline
+ * intervalFull, and a double passed to a call that is not inlined is boxed (a heap number each).
+ */
+const FULL_ARGS = new Float64Array(5);
+
+/** intervalPrepared without its fast case: the disks and the two slabs, always (numbers in q, see FULL_ARGS). */
+function intervalFull(q: Float64Array, v: Float64Array, o: number, out: Float64Array, i: number): boolean {
+  const px = q[0];
+  const py = q[1];
+  const dx = q[2];
+  const dy = q[3];
+  const r = q[4];
   let lo = Infinity;
   let hi = -Infinity;
   // End disks: |p + t·d − end|² = r², a quadratic in t with half-coefficient B (d is a unit vector).
@@ -409,7 +426,13 @@ export function zoneSegmentsAlong(
     flat.corners[2 * q + 1] = roof.corners[q][1];
   }
   ensureScratch(flat);
-  const n = segmentInto(p0[0], p0[1], d[0], d[1], len, flat, model);
+  const line = LINE;
+  line[0] = p0[0];
+  line[1] = p0[1];
+  line[2] = d[0];
+  line[3] = d[1];
+  line[4] = len;
+  const n = segmentInto(line, flat, model);
   const out: ZoneSegment[] = [];
   for (let i = 0; i < n; i++) out.push({ zone: ZONE_BY_CODE[SEG_ZONE[i]], planFt: SEG_LEN[i] });
   return out;
@@ -465,15 +488,20 @@ function ensureScratch(roof: FlatRoof): void {
 }
 
 /**
- * Allocation-free core of zoneSegmentsAlong for the line p + t·d, 0 ≤ t ≤ len: writes merged segments
- * into SEG_ZONE / SEG_LEN (zone codes 0..3 for 1', 1, 2, 3) and returns how many there are. The scratch
- * must have been grown for this roof (ensureScratch).
+ * The line segmentInto works on: p (0, 1), the unit direction d (2, 3) and the length len (4). Passed in
+ * this scratch array rather than as number arguments: a double passed to a call that V8 does not inline
+ * is boxed (a heap number each), and that was about 20 bytes of garbage per clip line.
  */
-function segmentInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, model: ZoneModel): number {
-  if (!(len > 0)) return 0;
-  return model.kind === "steep"
-    ? steepSegmentsInto(px, py, dx, dy, len, roof, model.aFt, model.zone3AsZone2)
-    : lowSlopeSegmentsInto(px, py, dx, dy, len, roof, model.h!, model.zone3AsZone2);
+const LINE = new Float64Array(5);
+
+/**
+ * Allocation-free core of zoneSegmentsAlong for the line p + t·d, 0 ≤ t ≤ len (read from `line`, see
+ * LINE): writes merged segments into SEG_ZONE / SEG_LEN (zone codes 0..3 for 1', 1, 2, 3) and returns how
+ * many there are. The scratch must have been grown for this roof (ensureScratch).
+ */
+function segmentInto(line: Float64Array, roof: FlatRoof, model: ZoneModel): number {
+  if (!(line[4] > 0)) return 0;
+  return model.kind === "steep" ? steepSegmentsInto(line, roof, model) : lowSlopeSegmentsInto(line, roof, model);
 }
 
 /**
@@ -482,7 +510,14 @@ function segmentInto(px: number, py: number, dx: number, dy: number, len: number
  * zone 1 elsewhere. Zone 3 lies inside zone 2, so the corners are looked at only where zone 2 is, and not
  * at all when zone 3 counts as zone 2.
  */
-function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, a: number, zone3AsZone2: boolean): number {
+function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel): number {
+  const px = line[0];
+  const py = line[1];
+  const dx = line[2];
+  const dy = line[3];
+  const len = line[4];
+  const a = model.aFt;
+  const zone3AsZone2 = model.zone3AsZone2;
   const prep = roof.prep;
   const ne = roof.ne;
   const iv = IV;
@@ -564,7 +599,14 @@ function steepSegmentsInto(px: number, py: number, dx: number, dy: number, len: 
  * I3 (zone 3 short side 0.2h), I1 (zone 1 band 1.2h). Zone 3 (or 2 when zone 3 counts as zone 2) where
  * one edge of a corner has I3 and the other I2; else zone 2 in any I2, zone 1 in any I1, zone 1' elsewhere.
  */
-function lowSlopeSegmentsInto(px: number, py: number, dx: number, dy: number, len: number, roof: FlatRoof, h: number, zone3AsZone2: boolean): number {
+function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel): number {
+  const px = line[0];
+  const py = line[1];
+  const dx = line[2];
+  const dy = line[3];
+  const len = line[4];
+  const h = model.h!;
+  const zone3AsZone2 = model.zone3AsZone2;
   const r2 = 0.6 * h;
   const r3 = 0.2 * h;
   const r1 = 1.2 * h;
@@ -748,14 +790,51 @@ export function spacingOverBattens(requiredIn: number, battenSpacingIn: number |
   return battenSpacingIn * Math.max(1, Math.floor(requiredIn / battenSpacingIn + 1e-9));
 }
 
+/** What planeFasteners gives with detail "totals": the plane's counts, none of its drawing detail. */
+export type PlaneFastenerTotals = Pick<PlaneWindZones, "clips" | "panelScrews" | "zones" | "spacingLimitedByBattens">;
+
+/**
+ * How much planeFasteners returns: "full" (the default) a new PlaneWindZones; "totals" only the counts
+ * (PlaneFastenerTotals) in ONE object that every "totals" call reuses and overwrites (its `zones` and their
+ * ZoneCounts too), so it allocates nothing per plane: read it before the next call and keep none of it
+ * except `spacingLimitedByBattens`, which is a new array when not empty (a shared frozen one when empty).
+ */
+export type PlaneFastenerDetail = "full" | "totals";
+
+// The one PlaneFastenerTotals that "totals" calls fill in. Its number fields start as NaN, a double, so
+// that they hold doubles from the start (no change of object shape when first written).
+const newZoneCounts = (): ZoneCounts => ({ clips: NaN, lineFt: NaN, areaSqFt: NaN, panelScrews: NaN });
+const TOTALS_ZONES: Record<WindZone, ZoneCounts> = { "1'": newZoneCounts(), "1": newZoneCounts(), "2": newZoneCounts(), "3": newZoneCounts() };
+const NONE_LIMITED: WindZone[] = Object.freeze([]) as unknown as WindZone[];
+const NO_CLIPS: number[] = Object.freeze([]) as unknown as number[];
+const TOTALS: PlaneFastenerTotals = { clips: NaN, panelScrews: NaN, zones: TOTALS_ZONES, spacingLimitedByBattens: NONE_LIMITED };
+
+/** Writes the tallies of zone code z (see Z_CLIPS) into c. */
+function setZoneTally(c: ZoneCounts, z: number): void {
+  c.clips = Z_CLIPS[z];
+  c.lineFt = Z_LINE[z];
+  c.areaSqFt = Z_AREA[z];
+  c.panelScrews = Z_SCREWS[z];
+}
+
 /**
  * Clips and exposed-fastener screws of one plane by zone. One clip line per panel (at its seam on the
  * starting side; the last panel's free edge is held by the rake cleat, counted with trim). Along a line
  * n = 1 + Σ ceil(segment / zone spacing); the extra clip goes to the zone at the line's eave end.
  * Exposed-fastener screws: panel area by zone (panel width × zone length along the panel's centre line)
- * × screws per square.
+ * × screws per square. With detail "totals" only the counts come back, in a reused object (see
+ * PlaneFastenerDetail); the counts are the same either way.
  */
-export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: PanelLayout, opts: PlaneFastenerOptions): PlaneWindZones {
+export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: PanelLayout, opts: PlaneFastenerOptions, detail?: "full"): PlaneWindZones;
+export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: PanelLayout, opts: PlaneFastenerOptions, detail: "totals"): PlaneFastenerTotals;
+export function planeFasteners(
+  g: PlaneGeometry,
+  pieces: EdgePiece[],
+  panels: PanelLayout,
+  opts: PlaneFastenerOptions,
+  detail: PlaneFastenerDetail = "full",
+): PlaneWindZones | PlaneFastenerTotals {
+  const full = detail !== "totals";
   // Every line runs up the slope: the edges are prepared for that direction once (see planeRoofInto).
   const upX = g.up[0];
   const upY = g.up[1];
@@ -770,26 +849,21 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
   const k = g.slopeFactor;
   const w = panels.coverageWidthIn / 12;
   const model = opts.model;
-  const spacing: ZoneSpacing = {
-    field: spacingOverBattens(opts.clipSpacingIn.field, opts.battenSpacingIn),
-    edge: spacingOverBattens(opts.clipSpacingIn.edge, opts.battenSpacingIn),
-    corner: spacingOverBattens(opts.clipSpacingIn.corner, opts.battenSpacingIn),
-  };
   // By zone code (1', 1, 2, 3): the spacing used and exposed-fastener screws per square (scratch arrays),
   // and the zones the battens force wider than asked, listed in the order first met (limitedNew has a bit
   // per such zone code not yet listed).
+  const bs = opts.battenSpacingIn;
   const spacingOf = SPACING_OF;
-  spacingOf[0] = spacing.field;
-  spacingOf[1] = spacing.field;
-  spacingOf[2] = spacing.edge;
-  spacingOf[3] = spacing.corner;
+  spacingOf[0] = spacingOverBattens(opts.clipSpacingIn.field, bs);
+  spacingOf[1] = spacingOf[0];
+  spacingOf[2] = spacingOverBattens(opts.clipSpacingIn.edge, bs);
+  spacingOf[3] = spacingOverBattens(opts.clipSpacingIn.corner, bs);
   const screwsOf = SCREWS_OF;
   screwsOf[0] = opts.screwsPerSquare.field;
   screwsOf[1] = opts.screwsPerSquare.field;
   screwsOf[2] = opts.screwsPerSquare.edge;
   screwsOf[3] = opts.screwsPerSquare.corner;
-  const bs = opts.battenSpacingIn;
-  const limited: WindZone[] = [];
+  let limited: WindZone[] | null = null; // made when a first zone is listed
   let limitedNew = 0;
   if (limitedByBattens(opts.clipSpacingIn.field, bs)) limitedNew |= 0b0011;
   if (limitedByBattens(opts.clipSpacingIn.edge, bs)) limitedNew |= 0b0100;
@@ -803,17 +877,23 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
     Z_AREA[z] = 0;
     Z_SCREWS[z] = 0;
   }
-  const clipsPerPanel: number[] = [];
+  const clipsPerPanel: number[] = full ? [] : NO_CLIPS; // not made for "totals"
   let clips = 0;
   let panelScrews = 0;
   const pp = panels.pieces;
   const count = pp.count;
+  const line = LINE; // every line runs up the slope (see LINE)
+  line[2] = upX;
+  line[3] = upY;
   if (opts.system === "standing-seam") {
     for (let pi = 0; pi < count; pi++) {
       const vMin = pp.vMin(pi);
       const len = pp.vMax(pi) - vMin;
       const s = pp.clipLineS(pi);
-      const ns = segmentInto(ox + s * rx + vMin * upX, oy + s * ry + vMin * upY, upX, upY, len, roof, model);
+      line[0] = ox + s * rx + vMin * upX;
+      line[1] = oy + s * ry + vMin * upY;
+      line[4] = len;
+      const ns = segmentInto(line, roof, model);
       let n = ns ? 1 : 0;
       if (ns) Z_CLIPS[segZone[0]] += 1;
       // Neighbouring zones with the same spacing are one run of the clip schedule; runFt sums the run's
@@ -824,7 +904,8 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
         const z = segZone[i];
         if (limitedNew & (1 << z)) {
           limitedNew &= ~(1 << z);
-          limited.push(ZONE_BY_CODE[z]);
+          if (limited === null) limited = [ZONE_BY_CODE[z]];
+          else limited.push(ZONE_BY_CODE[z]);
         }
         const sl = segLen[i];
         Z_LINE[z] += sl * k;
@@ -837,7 +918,7 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
         runStart = i + 1;
         runFt = 0;
       }
-      clipsPerPanel.push(n);
+      if (full) clipsPerPanel.push(n);
       clips += n;
     }
   } else {
@@ -845,7 +926,10 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       const vMin = pp.vMin(pi);
       const len = pp.vMax(pi) - vMin;
       const sc = (pp.sMin(pi) + pp.sMax(pi)) / 2;
-      const ns = segmentInto(ox + sc * rx + vMin * upX, oy + sc * ry + vMin * upY, upX, upY, len, roof, model);
+      line[0] = ox + sc * rx + vMin * upX;
+      line[1] = oy + sc * ry + vMin * upY;
+      line[4] = len;
+      const ns = segmentInto(line, roof, model);
       for (let i = 0; i < ns; i++) {
         const z = segZone[i];
         const area = w * segLen[i] * k;
@@ -857,6 +941,18 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
       }
     }
   }
+  if (!full) {
+    const t = TOTALS;
+    t.clips = clips;
+    t.panelScrews = panelScrews;
+    setZoneTally(TOTALS_ZONES["1'"], 0);
+    setZoneTally(TOTALS_ZONES["1"], 1);
+    setZoneTally(TOTALS_ZONES["2"], 2);
+    setZoneTally(TOTALS_ZONES["3"], 3);
+    t.spacingLimitedByBattens = limited ?? NONE_LIMITED;
+    return t;
+  }
+  const spacing: ZoneSpacing = { field: spacingOf[0], edge: spacingOf[2], corner: spacingOf[3] };
   const zones: Record<WindZone, ZoneCounts> = { "1'": zoneTally(0), "1": zoneTally(1), "2": zoneTally(2), "3": zoneTally(3) };
   const m = model;
   const widths: PlaneWindZones["widths"] =
@@ -880,6 +976,6 @@ export function planeFasteners(g: PlaneGeometry, pieces: EdgePiece[], panels: Pa
     clips,
     clipsPerPanel,
     panelScrews,
-    spacingLimitedByBattens: limited,
+    spacingLimitedByBattens: limited ?? [],
   };
 }
