@@ -25,7 +25,7 @@ import {
   underlaymentAdvisories,
   windAdvisories,
 } from "./advisories";
-import { ceilTol, fmt, num, plural, wasteText } from "./format";
+import { ceilTol, fmt, num, plural, toFixedFast, wasteText } from "./format";
 import { battenPieces, battenTotals, counterBattenTotals } from "./layers/battens";
 import { deckAreaToReplace } from "./layers/deck";
 import { iceBarrierCourses, iceBarrierWidthIn } from "./layers/ice-barrier";
@@ -35,10 +35,10 @@ import { MATERIAL_KEYS, materialLine, pipeBootKey, type MaterialKey, type Materi
 import type { EdgeType } from "./roof/edge-types";
 import { analyseEdges, buildRuns, edgeTotalsOf, pieceAt, type EdgePiece, type EdgeRun, type EdgeTotals } from "./roof/edges";
 import { isGeometryError, planeGeometryOfParsed, toPlan, type PlaneGeometry } from "./roof/geometry";
-import { layoutPanels, PanelPieces } from "./roof/panels";
+import { layoutPanels, PanelPieces, type PanelOptions } from "./roof/panels";
 import { slopeAngleDeg } from "./roof/slope";
 import { computeThermal, foilFacesGap } from "./thermal/index";
-import { countTrimRuns, TRIM_KEY_BY_EDGE, type TrimRunCount } from "./trim";
+import { tallyTrim, TRIM_KEY_BY_EDGE, type TrimTally } from "./trim";
 import type { EdgeQuantities, FastenersResult, PlaneQuantities, PlaneResult, StackResult, TakeoffOutcome, TakeoffQuantities, TakeoffResult, ZoneFasteners } from "./types";
 import { aboveDeckChannel, type ChannelResult } from "./ventilation/channel";
 import { climateZoneNumber, computeVentilation } from "./ventilation/index";
@@ -48,6 +48,8 @@ import {
   leastDimensionOfOutlines,
   LOW_SLOPE_MAX_PITCH,
   planeFasteners,
+  type PlaneFastenerOptions,
+  type PlaneFastenerTotals,
   type PlaneWindZones,
   type WindZone,
   type ZoneCounts,
@@ -88,6 +90,37 @@ export function computeTakeoffQuantities(input: unknown): TakeoffOutcome<Takeoff
 /** The store of panel pieces the per-plane passes reuse (see RoofContext.panelScratch). */
 const PANEL_SCRATCH = new PanelPieces(64);
 
+/**
+ * The options of layoutPanels and planeFasteners, one record of each set afresh for every plane (neither call
+ * keeps its options): a record per call was a needless allocation per plane. The engine runs one takeoff at a
+ * time, synchronously.
+ */
+const PANEL_OPTS: PanelOptions = { coverageWidthIn: 0, start: "left", hemAllowanceIn: 0, into: PANEL_SCRATCH };
+const FASTENER_OPTS: PlaneFastenerOptions = {
+  system: "standing-seam",
+  model: { kind: "steep", aFt: 0, zone3AsZone2: false },
+  clipSpacingIn: { field: 0, edge: 0, corner: 0 },
+  screwsPerSquare: { field: 0, edge: 0, corner: 0 },
+  battenSpacingIn: null,
+};
+
+/**
+ * Each plane's lists (edges, vertices) are gathered in these and copied out with slice() at their exact length:
+ * pushed into fresh arrays they grew a store of 17 slots for a handful of items. One array per record shape;
+ * emptied after each copy (see takeExact) so that they keep no result alive.
+ */
+const EDGE_QUANTITIES: EdgeQuantities[] = [];
+const EDGE_RESULTS: PlaneResult["edges"] = [];
+const VERTICES: PlaneResult["vertices"] = [];
+
+/** items[0 … n − 1] as a new array of exactly n items; those slots of `items` are then cleared. */
+function takeExact<T>(items: T[], n: number): T[] {
+  const out = items.slice(0, n);
+  // Overwritten rather than truncated: a shorter length could give the store back and grow it again.
+  for (let k = 0; k < n; k++) (items as unknown[])[k] = undefined;
+  return out;
+}
+
 /** "full": each plane's whole detail (PlaneResult); "quantities": its quantities only (PlaneQuantities). */
 export type TakeoffDetail = "full" | "quantities";
 
@@ -102,7 +135,9 @@ export interface TakeoffOptions {
  * Appends a list's items, in order. A loop rather than push(...list): the spread's hidden-class check in V8
  * failed on every takeoff here (a deoptimization loop, seen with node --trace-deopt), throwing the whole
  * computeTakeoffParsed out of optimized code each run. For the same reason the lists this function reads again
- * are built with loops, not map() or filter().
+ * are built with loops, not map() or filter(). And computeTakeoffParsed walks its long lists (planes, runs) by
+ * index, not with for…of: in a function that large V8 left the array iterator's next() a real call, one result
+ * object allocated per item.
  */
 function addAll<T>(to: T[], list: readonly T[]): void {
   for (let k = 0; k < list.length; k++) to.push(list[k]);
@@ -346,12 +381,12 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   const stack = planeStacks[i];
   const pieces = ctx.byPlane[i];
   const panelOpts = stack.panel;
-  const panels = layoutPanels(g, {
-    coverageWidthIn: panelOpts.coverageWidthIn,
-    start: panelOpts.start,
-    hemAllowanceIn: panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn,
-    into: ctx.panelScratch,
-  });
+  const layoutOpts = PANEL_OPTS;
+  layoutOpts.coverageWidthIn = panelOpts.coverageWidthIn;
+  layoutOpts.start = panelOpts.start;
+  layoutOpts.hemAllowanceIn = panelOpts.hemAllowanceIn ?? rules.panels.hemAllowanceIn;
+  layoutOpts.into = ctx.panelScratch;
+  const panels = layoutPanels(g, layoutOpts);
   sums.longestByPlane[i] = panels.longestIn;
   sums.slopedAreaSqFt += g.slopedAreaSqFt;
   sums.squares += g.squares;
@@ -377,13 +412,17 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   const sp = stack.spacer;
   const battenSpacingIn = sp.kind === "battens" && panelOpts.system === "standing-seam" ? sp.battens.spacingIn : null;
   const rates = ctx.ratesOf(stack);
-  const wz: PlaneWindZones = planeFasteners(g, pieces, panels, {
-    system: panelOpts.system,
-    model,
-    clipSpacingIn: rates.clipSpacingIn,
-    screwsPerSquare: rates.screwsPerSquare,
-    battenSpacingIn,
-  });
+  const fo = FASTENER_OPTS;
+  fo.system = panelOpts.system;
+  fo.model = model;
+  fo.clipSpacingIn = rates.clipSpacingIn;
+  fo.screwsPerSquare = rates.screwsPerSquare;
+  fo.battenSpacingIn = battenSpacingIn;
+  // The quantities path needs only the plane's counts ("totals": one reused record, read before the next plane).
+  let wzFull: PlaneWindZones | null = null;
+  let wz: PlaneFastenerTotals;
+  if (ctx.detail === "quantities") wz = planeFasteners(g, pieces, panels, fo, "totals");
+  else wz = wzFull = planeFasteners(g, pieces, panels, fo);
   if (battenSpacingIn && wz.spacingLimitedByBattens.length) sums.clipLimited.push({ planeId: g.id, zones: wz.spacingLimitedByBattens, battenSpacingIn });
   sums.clips += wz.clips;
   sums.clipScrews += wz.clips * screwsPerClip;
@@ -432,19 +471,22 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   u.layered += g.slopedAreaSqFt * stack.underlayment.layers;
   u.layers.add(stack.underlayment.layers);
 
+  // The layers' records (ice barrier, battens) are built only for the full detail; the sums always.
+  const full = ctx.detail === "full";
   let ice: PlaneResult["layers"]["iceBarrier"] = null;
   const wantsIce = stack.underlayment.iceBarrier ?? site.iceDamRisk === true;
   let eaveLf = 0;
   for (let k = 0; k < pieces.length; k++) if (pieces[k].type === "eave") eaveLf += pieces[k].trueLengthFt;
   if (wantsIce && eaveLf > 0) {
-    const widthIn = iceBarrierWidthIn(plane.eaveOverhangIn, g.pitch, site.codeEdition, rules.iceBarrier.insideWallIn);
+    // g.slopeFactor is slopeFactor(g.pitch), the very number (Math.hypot is costly).
+    const widthIn = iceBarrierWidthIn(plane.eaveOverhangIn, g.pitch, site.codeEdition, rules.iceBarrier.insideWallIn, g.slopeFactor);
     if (stack.underlayment.kind === "self-adhered") {
-      ice = { widthIn, courses: 0, eaveLf, membraneLf: 0, note: "The self-adhered underlayment covers the whole deck, so no separate ice barrier is added." };
+      if (full) ice = { widthIn, courses: 0, eaveLf, membraneLf: 0, note: "The self-adhered underlayment covers the whole deck, so no separate ice barrier is added." };
     } else {
       const courses = iceBarrierCourses(widthIn, rules.iceBarrier.rollWidthIn, rules.iceBarrier.sideLapIn);
       sums.iceMembraneLf += courses * eaveLf;
       sums.icePlanes.push({ id: g.id, widthIn, courses, eaveLf });
-      ice = { widthIn, courses, eaveLf, membraneLf: courses * eaveLf };
+      if (full) ice = { widthIn, courses, eaveLf, membraneLf: courses * eaveLf };
     }
   } else if (site.iceDamRisk === true && !wantsIce && eaveLf > 0 && stack.underlayment.kind !== "self-adhered") {
     sums.planesWithoutIce.push(g.id);
@@ -464,7 +506,7 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
     b.lf += rows.lf;
     b.rows += rows.rows;
     sums.spacerFasteners += rows.fasteners;
-    battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
+    if (full) battens = { nominal: sp.battens.nominal, rows: rows.rows, lf: rows.lf, fasteners: rows.fasteners, spacingIn: sp.battens.spacingIn };
     if (sp.battens.counterBattens) {
       const nominal = sp.battens.counterBattenNominal ?? sp.battens.nominal;
       const spacing = sp.battens.counterBattenSpacingIn ?? rules.battens.counterBattenSpacingIn;
@@ -477,7 +519,7 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
       c.lf += cr.lf;
       c.runs += cr.rows;
       sums.spacerFasteners += cr.fasteners;
-      counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
+      if (full) counterBattens = { nominal, runs: cr.rows, lf: cr.lf, fasteners: cr.fasteners, spacingIn: spacing };
     }
   } else if (sp.kind === "mesh") {
     meshSqFt = g.slopedAreaSqFt;
@@ -497,12 +539,13 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
     sums.penetrations.push({ planeId: g.id, kind: pen.kind, diameterIn: pen.diameterIn, widthIn: pen.widthIn, id: pen.id, count: pen.count });
   }
 
-  if (ctx.detail === "quantities") {
-    const edges: EdgeQuantities[] = [];
+  if (!full) {
+    const eq = EDGE_QUANTITIES;
     for (let k = 0; k < pieces.length; k++) {
       const pc = pieces[k];
-      edges.push({ index: pc.edgeIndex, type: pc.type, planLengthFt: pc.planLengthFt, trueLengthFt: pc.trueLengthFt });
+      eq[k] = { index: pc.edgeIndex, type: pc.type, planLengthFt: pc.planLengthFt, trueLengthFt: pc.trueLengthFt };
     }
+    const edges = takeExact(eq, pieces.length);
     return {
       id: g.id,
       name: plane.name,
@@ -517,12 +560,13 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
     };
   }
   const outline = g.outline;
-  const vertices: PlaneResult["vertices"] = [];
-  for (let k = 0; k < outline.length; k++) vertices.push({ x: outline[k][0], y: outline[k][1], z: g.heights[k] });
-  const edges: PlaneResult["edges"] = [];
+  const vs = VERTICES;
+  for (let k = 0; k < outline.length; k++) vs[k] = { x: outline[k][0], y: outline[k][1], z: g.heights[k] };
+  const vertices = takeExact(vs, outline.length);
+  const er = EDGE_RESULTS;
   for (let k = 0; k < pieces.length; k++) {
     const pc = pieces[k];
-    edges.push({
+    er[k] = {
       index: pc.edgeIndex,
       part: pc.part,
       type: pc.type,
@@ -534,8 +578,9 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
       to: [pc.to[0], pc.to[1]],
       planLengthFt: pc.planLengthFt,
       trueLengthFt: pc.trueLengthFt,
-    });
+    };
   }
+  const edges = takeExact(er, pieces.length);
   return {
     id: g.id,
     name: plane.name,
@@ -559,7 +604,7 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
       totalLengthFt: panels.totalLengthFt,
       longestIn: panels.longestIn,
     },
-    windZones: wz,
+    windZones: wzFull!,
     layers: {
       underlaymentSqFt: g.slopedAreaSqFt * stack.underlayment.layers,
       iceBarrier: ice,
@@ -573,19 +618,32 @@ function takeoffPlane(ctx: RoofContext, i: number, sums: JobSums): PlaneResult |
   };
 }
 
+/** Equal as Map keys are (SameValueZero): NaN equals NaN. */
+const sameKey = (a: number, b: number) => a === b || (a !== a && b !== b);
+
+/** Files an ice-barrier group under its width, then its courses. */
+function addIceGroup<G extends { courses: number; widthIn: number }>(byWidth: Map<number, Map<number, G>>, gr: G): void {
+  let byCourses = byWidth.get(gr.widthIn);
+  if (!byCourses) {
+    byCourses = new Map();
+    byWidth.set(gr.widthIn, byCourses);
+  }
+  byCourses.set(gr.courses, gr);
+}
+
 /** The job's quantities in purchase units, each with the arithmetic in words; rounded once, here. */
 function materialLines(m: {
   rules: TakeoffInput["rules"];
   sums: JobSums;
   edgeTotals: EdgeTotals;
-  trimRuns: TrimRunCount[];
-  trimLaps: number;
-  trimFasteners: number;
+  trim: TrimTally;
   vent: ReturnType<typeof computeVentilation>;
   ridgeRuns: EdgeRun[];
   dominantStack: StackInput;
 }): { lines: MaterialLine[]; deckSheets: number; panelScrews: number } {
-  const { rules, sums, edgeTotals, trimRuns, trimLaps, trimFasteners, vent, ridgeRuns, dominantStack } = m;
+  const { rules, sums, edgeTotals, trim, vent, ridgeRuns, dominantStack } = m;
+  const trimLaps = trim.laps;
+  const trimFasteners = trim.fasteners;
   const { clips, clipScrews, panelScrewsExact, spacerFasteners, underl, iceMembraneLf, icePlanes, meshArea, dimpledArea, foilArea, deckArea } = sums;
   const { battenLf, counterLf, panelLf, closureEave, closureRidge, closureVented, penetrations } = sums;
   const screwsPerClip = rules.clips.screwsPerClip;
@@ -595,7 +653,7 @@ function materialLines(m: {
     lines.push(
       materialLine(
         key,
-        Number(v.lf.toFixed(4)),
+        Number(toFixedFast(v.lf, 4)),
         `${v.count} ${plural(v.count, "panel")} ordered to the inch (see each plane's cut list), Σ lengths = ${fmt(v.lf, 2)} lf; offcuts are in the lengths, no further waste`,
       ),
     );
@@ -611,24 +669,34 @@ function materialLines(m: {
     const perRoll = ib.rollLengthFt - ib.endLapIn / 12;
     const exact = (iceMembraneLf * (1 + w.iceBarrierPct / 100)) / perRoll;
     const rolls = ceilTol(exact);
-    // Planes with the same width and courses are one term (a large roof would otherwise list every plane).
-    // Keyed by width, then courses (numbers, not a text key per plane); groups listed in order of first plane.
-    const byWidth = new Map<number, Map<number, { ids: string[]; eaveLf: number; courses: number; widthIn: number }>>();
+    // Planes with the same width and courses are one term (a large roof would otherwise list every plane),
+    // groups listed in order of first plane. A roof has a few groups: each plane's is found by a scan of those
+    // seen so far; past 16 groups, by a map keyed by width, then courses (numbers, not a text key per plane).
     const groups: { ids: string[]; eaveLf: number; courses: number; widthIn: number }[] = [];
+    let byWidth: Map<number, Map<number, { ids: string[]; eaveLf: number; courses: number; widthIn: number }>> | null = null;
     for (const p of icePlanes) {
-      let byCourses = byWidth.get(p.widthIn);
-      if (!byCourses) {
-        byCourses = new Map();
-        byWidth.set(p.widthIn, byCourses);
+      let gr: (typeof groups)[number] | undefined;
+      if (byWidth) gr = byWidth.get(p.widthIn)?.get(p.courses);
+      else {
+        for (let q = 0; q < groups.length; q++) {
+          const c = groups[q];
+          if (sameKey(c.widthIn, p.widthIn) && sameKey(c.courses, p.courses)) {
+            gr = c;
+            break;
+          }
+        }
       }
-      const gr = byCourses.get(p.courses);
       if (gr) {
         gr.ids.push(p.id);
         gr.eaveLf += p.eaveLf;
-      } else {
-        const added = { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn };
-        byCourses.set(p.courses, added);
-        groups.push(added);
+        continue;
+      }
+      const added = { ids: [p.id], eaveLf: p.eaveLf, courses: p.courses, widthIn: p.widthIn };
+      groups.push(added);
+      if (byWidth) addIceGroup(byWidth, added);
+      else if (groups.length > 16) {
+        byWidth = new Map();
+        for (const c of groups) addIceGroup(byWidth, c);
       }
     }
     const terms: string[] = [];
@@ -690,43 +758,29 @@ function materialLines(m: {
       ),
     );
   }
-  // Trim by type: pieces per run, summed.
-  const edgeOrder: EdgeType[] = ["eave", "rake", "ridge", "hip", "valley", "sidewall", "headwall", "transition"];
-  // The runs of each type, in run order, in one pass.
-  const runsOfType = new Map<EdgeType, TrimRunCount[]>();
-  for (const r of trimRuns) {
-    const list = runsOfType.get(r.type);
-    if (list) list.push(r);
-    else runsOfType.set(r.type, [r]);
-  }
-  for (const t of edgeOrder) {
-    const rs = runsOfType.get(t);
-    if (!rs) continue;
-    let pieces = 0;
-    for (const r of rs) pieces += r.pieces;
+  // Trim by type (in TRIM_TYPE_ORDER): pieces per run, summed.
+  for (const t of trim.byType) {
+    const pieces = t.pieces;
     const qty = ceilTol(pieces * (1 + w.trimPct / 100));
     // Equal runs are one term: "4 × 36 ft → 4" (four runs of 36 ft, 4 pieces each). Runs are first counted by
-    // their exact length (a run's pieces follow from its length), and each distinct length is written once; two
-    // lengths that print alike then merge into one term, in the order their first run came.
-    const byLength = new Map<number, { run: TrimRunCount; n: number }>();
-    for (const r of rs) {
-      const e = byLength.get(r.lengthFt);
-      if (e) e.n++;
-      else byLength.set(r.lengthFt, { run: r, n: 1 });
-    }
+    // their exact length (a run's pieces follow from its length; see tallyTrim), and each distinct length is
+    // written once; two lengths that print alike then merge into one term, in the order their first run came.
     const same = new Map<string, number>();
-    for (const { run, n } of byLength.values()) {
-      const key = `${fmt(run.lengthFt)} ft → ${run.pieces}`;
-      same.set(key, (same.get(key) ?? 0) + n);
+    const lengths = t.lengthsFt;
+    for (let j = 0; j < lengths.length; j++) {
+      const key = `${fmt(lengths[j])} ft → ${t.piecesOfLength[j]}`;
+      same.set(key, (same.get(key) ?? 0) + t.runsOfLength[j]);
     }
-    const terms: string[] = [];
-    for (const [key, n] of same) terms.push(n > 1 ? `${n} × ${key}` : key);
-    const list = terms.join(", ");
+    let list = "";
+    for (const [key, n] of same) {
+      if (list) list += ", ";
+      list += n > 1 ? `${n} × ${key}` : key;
+    }
     lines.push(
       materialLine(
-        TRIM_KEY_BY_EDGE[t],
+        TRIM_KEY_BY_EDGE[t.type],
         qty,
-        `${rs.length} ${plural(rs.length, "run")} (${list}); pieces per run = ceil((L − ${num(rules.trim.endLapIn)} in lap) ÷ (${num(rules.trim.stockLengthFt)} ft − lap)) = ${pieces}` +
+        `${t.runs} ${plural(t.runs, "run")} (${list}); pieces per run = ceil((L − ${num(rules.trim.endLapIn)} in lap) ÷ (${num(rules.trim.stockLengthFt)} ft − lap)) = ${pieces}` +
           (w.trimPct ? ` × ${wasteText(w.trimPct)} waste → ${qty}` : ""),
       ),
     );
@@ -875,7 +929,10 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
 
   // ---- edges (typed against the whole roof) -------------------------------------------------------------
   const overrides: (Record<string, EdgeType> | null)[] = [];
-  for (const p of input.planes) overrides.push(Object.keys(p.edgeTypes).length ? p.edgeTypes : null);
+  for (let i = 0; i < input.planes.length; i++) {
+    const et = input.planes[i].edgeTypes;
+    overrides.push(Object.keys(et).length ? et : null);
+  }
   const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e]);
   const advisories: Advisory[] = [];
   let edgeTotals: EdgeTotals = edgesAll.totals;
@@ -906,7 +963,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   if (lGiven !== undefined) L = lGiven;
   else {
     const outlines: PlaneGeometry["outline"][] = [];
-    for (const g of geoms) outlines.push(g.outline);
+    for (let i = 0; i < geoms.length; i++) outlines.push(geoms[i].outline);
     L = leastDimensionOfOutlines(outlines);
   }
   const h = site.wind.meanRoofHeightFt ?? null;
@@ -948,25 +1005,25 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   };
   const sums = newJobSums(input.planes.length);
   const planeResults: (PlaneResult | PlaneQuantities)[] = [];
-  for (const i of scoped) planeResults.push(takeoffPlane(ctx, i, sums));
+  for (let r = 0; r < scoped.length; r++) planeResults.push(takeoffPlane(ctx, scoped[r], sums));
   const { channelOf } = ctx;
   const { longestByPlane, zones, clips, clipScrews, spacerFasteners, planesWithoutIce, clipLimited, penetrations } = sums;
 
   // ---- trim ------------------------------------------------------------------------------------------
-  const trimRuns = countTrimRuns(runs, rules.trim.stockLengthFt, rules.trim.endLapIn, rules.trim.fastenerSpacingIn);
-  let trimFasteners = 0;
-  let trimLaps = 0;
-  for (const r of trimRuns) {
-    trimFasteners += r.fasteners;
-    trimLaps += r.laps;
-  }
+  const trim = tallyTrim(runs, rules.trim.stockLengthFt, rules.trim.endLapIn, rules.trim.fastenerSpacingIn);
+  const trimFasteners = trim.fasteners;
 
   // ---- stacks: channel and thermal --------------------------------------------------------------------
   const stackResults: StackResult[] = [];
   const thermalAdvisories: Advisory[] = [];
   // The computed planes of each assembly (by id), in plane order: one pass instead of a filter per assembly.
   const planesOfStack = new Map<string, number[]>();
-  for (const i of scoped) {
+  // Each plane's { id, pitch }, one record for both its assembly's list and the roof's (the advisories only
+  // read them).
+  const pitchOf: { id: string; pitch: number }[] = [];
+  for (let i = 0; i < geoms.length; i++) pitchOf.push({ id: geoms[i].id, pitch: geoms[i].pitch });
+  for (let r = 0; r < scoped.length; r++) {
+    const i = scoped[r];
     const sid = planeStacks[i].id;
     const list = planesOfStack.get(sid);
     if (list) list.push(i);
@@ -981,10 +1038,11 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     let sloped = 0;
     // Pitch for the air-space table: the assembly's largest plane (the first of equals).
     let main = planeIdx[0];
-    for (const i of planeIdx) {
+    for (let r = 0; r < planeIdx.length; r++) {
+      const i = planeIdx[r];
       const g = geoms[i];
       ids.push(g.id);
-      pitches.push({ id: g.id, pitch: g.pitch });
+      pitches.push(pitchOf[i]);
       plan += g.planAreaSqFt;
       sloped += g.slopedAreaSqFt;
       if (g.slopedAreaSqFt > geoms[main].slopedAreaSqFt) main = i;
@@ -1034,14 +1092,15 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   const scopedPlaneIds: string[] = [];
   const scopedPlanes: { id: string; pitch: number }[] = [];
   let planArea = 0;
-  for (const i of scoped) {
+  for (let r = 0; r < scoped.length; r++) {
+    const i = scoped[r];
     const g = geoms[i];
     scopedPlaneIds.push(g.id);
-    scopedPlanes.push({ id: g.id, pitch: g.pitch });
+    scopedPlanes.push(pitchOf[i]);
     planArea += g.planAreaSqFt;
   }
   const ridgeRuns: EdgeRun[] = [];
-  for (const r of runs) if (r.type === "ridge") ridgeRuns.push(r);
+  for (let k = 0; k < runs.length; k++) if (runs[k].type === "ridge") ridgeRuns.push(runs[k]);
   const vent = computeVentilation({
     site: {
       atticType: site.atticType,
@@ -1078,7 +1137,8 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   );
   // The planes grouped by their assembly's longest panel allowed, groups in order of first plane.
   const byMaxLength = new Map<number, { id: string; longestIn: number }[]>();
-  for (const i of scoped) {
+  for (let r = 0; r < scoped.length; r++) {
+    const i = scoped[r];
     const max = planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt;
     const entry = { id: geoms[i].id, longestIn: longestByPlane[i] };
     const list = byMaxLength.get(max);
@@ -1089,7 +1149,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   addAll(advisories, reroofAdvisory(site.existingLayers, site.tearOff));
   addAll(advisories, cricketAdvisories(penetrations));
   const transitionIds: string[] = [];
-  for (const r of runs) if (r.type === "transition") addAll(transitionIds, r.planeIds);
+  for (let k = 0; k < runs.length; k++) if (runs[k].type === "transition") addAll(transitionIds, runs[k].planeIds);
   const transitionPlanes = unique(transitionIds).filter(isScopedId);
   addAll(advisories, transitionAdvisory(edgeTotals.transitionLf, transitionPlanes));
   // The planes whose clips the battens limit, grouped by batten spacing in order of first plane.
@@ -1106,7 +1166,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   addAll(advisories, thermalAdvisories);
 
   // ---- materials (rounded once, here) -----------------------------------------------------------------
-  const { lines, deckSheets, panelScrews } = materialLines({ rules, sums, edgeTotals, trimRuns, trimLaps, trimFasteners, vent, ridgeRuns, dominantStack });
+  const { lines, deckSheets, panelScrews } = materialLines({ rules, sums, edgeTotals, trim, vent, ridgeRuns, dominantStack });
 
   // ---- result -----------------------------------------------------------------------------------------
   const fasteners: FastenersResult = { clips, clipScrews, panelScrews, trimFasteners, spacerFasteners, zones };

@@ -10,8 +10,9 @@
 import { slopeFactor } from "../roof/slope";
 import { ceilTol } from "../format";
 
-export function iceBarrierWidthIn(eaveOverhangIn: number, pitch: number, codeEdition: number, insideWallIn = 24): number {
-  const along = (eaveOverhangIn + insideWallIn) * slopeFactor(pitch);
+/** `k` is the pitch's slope factor; a caller that has it (a plane's geometry) passes it to skip the square root. */
+export function iceBarrierWidthIn(eaveOverhangIn: number, pitch: number, codeEdition: number, insideWallIn = 24, k = slopeFactor(pitch)): number {
+  const along = (eaveOverhangIn + insideWallIn) * k;
   const steepMin = pitch >= 8 && codeEdition >= 2015 && codeEdition <= 2021 ? 36 : 0;
   return Math.max(along, steepMin);
 }

@@ -208,13 +208,16 @@ let STARTS = new Float64Array(64);
 function fillStripStarts(sMin: number, sMax: number, w: number, start: PanelStart): number {
   let out: Float64Array = STARTS;
   let n = 0;
+  // The loops start from `sMin * 1` and `sMax * 1`: the same number (× 1 is exact for every double, −0 and
+  // NaN included), but a product, so V8 keeps the loop variable an unboxed double. Started from the parameter
+  // itself it stayed a boxed number, one allocated per strip.
   if (start === "left") {
-    for (let a = sMin, j = 0; a < sMax - TOL; a = sMin + ++j * w) {
+    for (let a = sMin * 1, j = 0; a < sMax - TOL; a = sMin + ++j * w) {
       if (n === out.length) out = growStarts();
       out[n++] = a;
     }
   } else if (start === "right") {
-    for (let b = sMax, j = 0; b > sMin + TOL; b = sMax - ++j * w) {
+    for (let b = sMax * 1, j = 0; b > sMin + TOL; b = sMax - ++j * w) {
       if (n === out.length) out = growStarts();
       out[n++] = b - w;
     }
@@ -251,6 +254,14 @@ export function stripStarts(sMin: number, sMax: number, w: number, start: PanelS
 const SLICER = new StripSlicer();
 let LENGTH_COUNT = new Int32Array(256);
 let DISTINCT = new Int32Array(64);
+/**
+ * The plane's panel lengths and cut-list entries as they are found, copied out with slice() at their exact
+ * count: pushed into fresh arrays they grew their stores two or three times per plane (an allocation each).
+ * The copies are packed arrays of the same kinds as before. LENGTHS holds plain numbers; ENTRIES is emptied
+ * after each copy so that it keeps no result alive.
+ */
+const LENGTHS: number[] = [];
+const ENTRIES: CutListEntry[] = [];
 
 /** Appends the panel of strip a…b over the piece sMin…sMax × vMin…vMax; returns its ordered length. */
 function addPiece(
@@ -285,8 +296,8 @@ function addPiece(
  */
 function cutListOf(lengthsIn: number[], minIn: number, maxIn: number): CutListEntry[] {
   const n = lengthsIn.length;
-  const cutList: CutListEntry[] = [];
-  if (n === 0) return cutList;
+  if (n === 0) return [];
+  const cutList = ENTRIES;
   const range = maxIn - minIn + 1;
   let plain = range <= 4096 && (minIn | 0) === minIn && (maxIn | 0) === maxIn;
   for (let i = 0; plain && i < n; i++) if ((lengthsIn[i] | 0) !== lengthsIn[i]) plain = false;
@@ -313,28 +324,38 @@ function cutListOf(lengthsIn: number[], minIn: number, maxIn: number): CutListEn
       }
       for (let i = 0; i < d; i++) {
         const l = distinct[i];
-        cutList.push({ lengthIn: l, count: cnt[l - minIn] });
+        cutList[i] = { lengthIn: l, count: cnt[l - minIn] };
         cnt[l - minIn] = 0; // leave the scratch zeroed for the next plane
       }
-      return cutList;
+      return takeEntries(d);
     }
+    let e = 0;
     for (let l = maxIn; l >= minIn; l--) {
       const c = cnt[l - minIn];
       if (c === 0) continue;
-      cutList.push({ lengthIn: l, count: c });
+      cutList[e++] = { lengthIn: l, count: c };
       cnt[l - minIn] = 0;
     }
-    return cutList;
+    return takeEntries(e);
   }
   const sorted = Int32Array.from(lengthsIn).sort();
+  let e = 0;
   for (let i = n - 1; i >= 0; ) {
     const l = sorted[i];
     let j = i;
     while (j >= 0 && sorted[j] === l) j--;
-    cutList.push({ lengthIn: l, count: i - j });
+    cutList[e++] = { lengthIn: l, count: i - j };
     i = j;
   }
-  return cutList;
+  return takeEntries(e);
+}
+
+/** ENTRIES[0 … count − 1] as a new array; ENTRIES is then emptied (its store kept for the next plane). */
+function takeEntries(count: number): CutListEntry[] {
+  const out = ENTRIES.slice(0, count);
+  // Overwritten rather than truncated: a shorter length could give the store back and grow it again.
+  for (let i = 0; i < count; i++) (ENTRIES as unknown[])[i] = undefined;
+  return out;
 }
 
 export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout {
@@ -349,7 +370,8 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
   pieces.count = 0;
   // The plane's edges are read once; each strip is then cut from typed arrays without allocating.
   const slicer = SLICER.load(g.local);
-  const lengthsIn: number[] = [];
+  const lengths = LENGTHS;
+  let nl = 0;
   const right = start === "right";
   if (slicer.isConvex()) {
     // A convex plane has at most one piece per strip: all strips are cut in one pass.
@@ -360,7 +382,7 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
       if (stripBottom[s] < 0 || stripSMax[s] - stripSMin[s] <= TOL) continue;
       const a = starts[s];
       const b = a + w;
-      lengthsIn.push(addPiece(pieces, a, b, stripSMin[s], stripSMax[s], stripVMin[s], stripVMax[s], stripBottom[s], stripTop[s], stripProbe[s], k, hem, right));
+      lengths[nl++] = addPiece(pieces, a, b, stripSMin[s], stripSMax[s], stripVMin[s], stripVMax[s], stripBottom[s], stripTop[s], stripProbe[s], k, hem, right);
     }
   } else {
     // Any other plane may have several pieces in a strip (a notch).
@@ -371,10 +393,11 @@ export function layoutPanels(g: PlaneGeometry, opts: PanelOptions): PanelLayout 
       for (let q = 0; q < m; q++) {
         const c = slicer.pieces[q];
         if (c.sMax - c.sMin <= TOL) continue;
-        lengthsIn.push(addPiece(pieces, a, b, c.sMin, c.sMax, c.vMin, c.vMax, c.bottomEdge, c.topEdge, c.sProbe, k, hem, right));
+        lengths[nl++] = addPiece(pieces, a, b, c.sMin, c.sMax, c.vMin, c.vMax, c.bottomEdge, c.topEdge, c.sProbe, k, hem, right);
       }
     }
   }
+  const lengthsIn = lengths.slice(0, nl);
   let totalIn = 0;
   let longestIn = 0;
   let shortestIn = Infinity;
