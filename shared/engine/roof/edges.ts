@@ -20,7 +20,7 @@ import type { Advisory } from "../advisory";
 import { advisory } from "../advisory";
 import type { EdgeType } from "./edge-types";
 import { heightAt, hypot2, type PlaneGeometry } from "./geometry";
-import type { Pt } from "./polygon";
+import { sortPrefix, type Pt } from "./polygon";
 
 /** Probe distance into each plane for the hip/valley test, ft. */
 export const EDGE_PROBE_FT = 0.1;
@@ -513,15 +513,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         cuts[c] = ovT0[ovList[i]];
         cuts[c + 1] = ovT1[ovList[i]];
       }
-      for (let i = 1; i < nc; i++) {
-        const x = cuts[i];
-        let j = i - 1;
-        while (j >= 0 && cuts[j] > x) {
-          cuts[j + 1] = cuts[j];
-          j--;
-        }
-        cuts[j + 1] = x;
-      }
+      sortPrefix(cuts, nc);
       let nu = 1;
       for (let i = 1; i < nc; i++) if (cuts[i] - cuts[nu - 1] > TOL) cuts[nu++] = cuts[i];
       if (len - cuts[nu - 1] > 0) cuts[nu - 1] = len;
@@ -547,42 +539,29 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         const plan = t1 - t0;
         const trueLengthFt = hypot2(plan, z1 - z0);
         const horizontal = Math.abs(z1 - z0) <= TOL;
+        // A piece along no other plane is typed from this plane alone; a shared one from both, and counted
+        // (and checked for a height mismatch) on the plane that comes first.
+        let computedType: EdgeType;
+        let over: EdgeType | undefined;
+        let q: PlaneGeometry | null = null;
+        let qi = -1;
+        let qEdge = -1;
+        let first = true;
         if (partner === -1) {
-          const computedType = typeUnshared(horizontal, mine);
-          const over = overrides(p, ed.index);
-          const type = over ?? computedType;
-          put(pieces, nPieces++, {
-            planeIdx: p,
-            planeId: g.id,
-            edgeIndex: ed.index,
-            part: part++,
-            from,
-            to,
-            planLengthFt: plan,
-            trueLengthFt,
-            z0,
-            z1,
-            horizontal,
-            shared: false,
-            partner: null,
-            computedType,
-            type,
-            overridden: over !== undefined,
-            counted: true,
-          });
-          addToTotals(totals, type, trueLengthFt);
-          continue;
+          computedType = typeUnshared(horizontal, mine);
+          over = overrides(p, ed.index);
+        } else {
+          const partnerRow = ovPartner[partner];
+          qi = planeOfRow[partnerRow];
+          qEdge = edgeOfRow[partnerRow];
+          q = planes[qi];
+          const theirs = sides[partnerRow];
+          first = p < qi;
+          // Type from the first plane's view of horizontality so both sides agree.
+          const horizontalForType = first ? horizontal : Math.abs(heightAt(q, from) - heightAt(q, to)) <= TOL;
+          computedType = typeShared(horizontalForType, mine, theirs);
+          over = first ? overrides(p, ed.index) ?? overrides(qi, qEdge) : overrides(qi, qEdge) ?? overrides(p, ed.index);
         }
-        const partnerRow = ovPartner[partner];
-        const qi = planeOfRow[partnerRow];
-        const qEdge = edgeOfRow[partnerRow];
-        const q = planes[qi];
-        const theirs = sides[partnerRow];
-        const first = p < qi;
-        // Type from the first plane's view of horizontality so both sides agree.
-        const horizontalForType = first ? horizontal : Math.abs(heightAt(q, from) - heightAt(q, to)) <= TOL;
-        const computedType = typeShared(horizontalForType, mine, theirs);
-        const over = first ? overrides(p, ed.index) ?? overrides(qi, qEdge) : overrides(qi, qEdge) ?? overrides(p, ed.index);
         const type = over ?? computedType;
         put(pieces, nPieces++, {
           planeIdx: p,
@@ -596,8 +575,8 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
           z0,
           z1,
           horizontal,
-          shared: true,
-          partner: { planeIdx: qi, planeId: q.id, edgeIndex: qEdge },
+          shared: q !== null,
+          partner: q !== null ? { planeIdx: qi, planeId: q.id, edgeIndex: qEdge } : null,
           computedType,
           type,
           overridden: over !== undefined,
@@ -605,6 +584,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         });
         if (!first) continue;
         addToTotals(totals, type, trueLengthFt);
+        if (q === null) continue;
         const d0 = Math.abs(heightAt(q, from) - z0);
         const d1 = Math.abs(heightAt(q, to) - z1);
         const key = p * nPlanes + qi;

@@ -20,6 +20,22 @@ export function sortSmall(a: number[]): number[] {
   return a;
 }
 
+/**
+ * sortSmall for the first n numbers of a typed scratch array (in place, ascending, insertion sort: a handful of
+ * cuts or corners; stable, so equal values such as 0 and −0 keep their order).
+ */
+export function sortPrefix(a: Float64Array, n: number): void {
+  for (let i = 1; i < n; i++) {
+    const x = a[i];
+    let j = i - 1;
+    while (j >= 0 && a[j] > x) {
+      a[j + 1] = a[j];
+      j--;
+    }
+    a[j + 1] = x;
+  }
+}
+
 /** Signed area by the shoelace formula: positive for counter-clockwise winding. */
 export function signedArea(poly: readonly Pt[]): number {
   let a = 0;
@@ -348,16 +364,9 @@ export class StripSlicer {
         hi[i] = h + 1e-12;
       }
     }
-    // Insertion sort (a handful of corners), stable like sortSmall.
-    for (let i = 0; i < n; i++) {
-      const x = ps[i];
-      let j = i - 1;
-      while (j >= 0 && sorted[j] > x) {
-        sorted[j + 1] = sorted[j];
-        j--;
-      }
-      sorted[j + 1] = x;
-    }
+    // The corners' s, sorted.
+    for (let i = 0; i < n; i++) sorted[i] = ps[i];
+    sortPrefix(sorted, n);
     return this;
   }
 

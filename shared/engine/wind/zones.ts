@@ -18,7 +18,7 @@
 import type { PlaneGeometry } from "../roof/geometry";
 import type { EdgePiece } from "../roof/edges";
 import type { PanelLayout } from "../roof/panels";
-import type { Pt } from "../roof/polygon";
+import { sortPrefix, type Pt } from "../roof/polygon";
 
 export type WindZone = "1'" | "1" | "2" | "3";
 export const WIND_ZONES: readonly WindZone[] = ["1'", "1", "2", "3"];
@@ -447,19 +447,6 @@ let SEG_LEN = new Float64Array(64);
 let ACTIVE_CORNERS = new Int32Array(16);
 let REACH = new Int32Array(16);
 
-/** Sorts cuts[0..n) ascending in place: insertion sort, as a line has only a handful of cuts. */
-function sortCuts(cuts: Float64Array, n: number): void {
-  for (let i = 1; i < n; i++) {
-    const x = cuts[i];
-    let j = i - 1;
-    while (j >= 0 && cuts[j] > x) {
-      cuts[j + 1] = cuts[j];
-      j--;
-    }
-    cuts[j + 1] = x;
-  }
-}
-
 /**
  * Appends one classified piece to segZone / segLen (SEG_ZONE / SEG_LEN, ns pieces so far), merging it into
  * the previous piece when that has the same zone; returns the new count.
@@ -553,7 +540,7 @@ function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel)
     if (hi > 0 && hi < len) cuts[nc++] = hi;
     if (lo < len && hi > 0) reach[nr++] = o;
   }
-  sortCuts(cuts, nc);
+  sortPrefix(cuts, nc);
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   let na = 0;
   if (!zone3AsZone2) {
@@ -650,7 +637,7 @@ function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneMod
       if (iv[ok + 1] > 0 && iv[ok + 1] < len) cuts[nc++] = iv[ok + 1];
     }
   }
-  sortCuts(cuts, nc);
+  sortPrefix(cuts, nc);
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   const corners = roof.corners;
   let na = 0;
