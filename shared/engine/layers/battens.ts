@@ -72,8 +72,9 @@ function loadEdges(poly: PlaneGeometry["local"], axis: 0 | 1): number {
 
 /**
  * One line at `at` (clamped just inside lo … hi) across the n edges loaded by loadEdges: its pieces added to
- * `t` (and to `rows` when given). The crossings are those of crossingsInto (../roof/polygon), by the same
- * arithmetic: the half-open rule, x = a + (c − a⊥)·Δ / Δ⊥, sorted along the line, inside between pairs.
+ * `t` (and to `rows` when given). The line's crossings with the edges, by the half-open rule (an edge counts
+ * when its ends lie on either side of c, one of them possibly on it, so a line through a corner or along an
+ * edge is counted once): x = a + (c − a⊥)·Δ / Δ⊥, sorted along the line; the inside lies between pairs.
  */
 function layLine(n: number, at: number, lo: number, hi: number, k: number, fastenerSpacingIn: number, t: BattenTotals, rows?: BattenRow[]): void {
   const c = Math.min(Math.max(at, lo + nudge), hi - nudge);

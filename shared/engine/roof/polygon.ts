@@ -6,23 +6,9 @@ import type { PlanPoint } from "../units";
 
 export type Pt = readonly [number, number];
 
-/** In-place insertion sort, ascending: the arrays here hold a handful of numbers (no allocation). */
-export function sortSmall(a: number[]): number[] {
-  for (let i = 1; i < a.length; i++) {
-    const x = a[i];
-    let j = i - 1;
-    while (j >= 0 && a[j] > x) {
-      a[j + 1] = a[j];
-      j--;
-    }
-    a[j + 1] = x;
-  }
-  return a;
-}
-
 /**
- * sortSmall for the first n numbers of a typed scratch array (in place, ascending, insertion sort: a handful of
- * cuts or corners; stable, so equal values such as 0 and −0 keep their order).
+ * Sorts the first n numbers of a typed scratch array in place, ascending, by insertion (a handful of cuts or
+ * corners, no allocation); stable, so equal values such as 0 and −0 keep their order.
  */
 export function sortPrefix(a: Float64Array, n: number): void {
   for (let i = 1; i < n; i++) {
@@ -185,24 +171,6 @@ export function bbox(poly: readonly Pt[]): [number, number, number, number] {
   return [x0, y0, x1, y1];
 }
 
-/**
- * Crossings of a polygon (local (s, v)) with the line v = c (axis 1) or s = c (axis 0), sorted along the
- * line, written into `out` (emptied first): inside intervals are [out[0], out[1]], [out[2], out[3]] …
- * Uses the half-open crossing rule, so a line through a vertex or along an edge parallel to it is counted
- * once. Returns `out`; a caller keeps one array for many lines.
- */
-export function crossingsInto(poly: readonly Pt[], axis: 0 | 1, c: number, out: number[]): number[] {
-  const o = axis === 1 ? 0 : 1; // the coordinate measured along the line
-  const n = poly.length;
-  out.length = 0;
-  for (let i = 0; i < n; i++) {
-    const a = poly[i];
-    const b = poly[(i + 1) % n];
-    if (a[axis] > c !== b[axis] > c) out.push(a[o] + ((c - a[axis]) * (b[o] - a[o])) / (b[axis] - a[axis]));
-  }
-  return sortSmall(out);
-}
-
 /** One connected piece of a polygon clipped to a strip a ≤ s ≤ b. */
 export interface StripComponent {
   sMin: number;
@@ -281,7 +249,7 @@ function ensureTraps(n: number): void {
  * range, and the corners' s in ascending order; each strip is then cut without reading the nested point
  * arrays, without a modulo per edge and without allocating (the pieces are reused objects). Every value is
  * computed by the same floating-point operations, in the same order, as from the points themselves, so the
- * results are bit-identical to stripComponents and convexStripComponent (which use this class).
+ * results are bit-identical to cutting the point arrays directly.
  */
 export class StripSlicer {
   /** Corner count of the loaded polygon. */
@@ -370,7 +338,7 @@ export class StripSlicer {
     return this;
   }
 
-  /** True when the loaded polygon is convex (collinear corners allowed): isConvex on the stored corners. */
+  /** True when the loaded polygon is convex (collinear corners allowed): every turn the same way, or none. */
   isConvex(): boolean {
     const { n, ps, pv } = this;
     let sign = 0;
@@ -782,12 +750,12 @@ export class StripSlicer {
   }
 }
 
-/** The slicer behind the one-strip functions below (each call loads the polygon afresh). */
+/** The slicer behind stripComponents (each call loads the polygon afresh). */
 const ONE_STRIP = new StripSlicer();
 
 /**
  * Connected pieces of the polygon inside the strip a ≤ s ≤ b (local (s, v) coordinates), sorted by vMin then
- * sMin; see StripSlicer.slice. With `convex` the polygon is taken to be convex (convexStripComponent).
+ * sMin; see StripSlicer.slice. With `convex` the polygon is taken to be convex (StripSlicer.convex).
  * New objects each call: a caller cutting many strips of one polygon should use a StripSlicer.
  */
 export function stripComponents(poly: readonly Pt[], a: number, b: number, convex = false): StripComponent[] {
@@ -803,29 +771,6 @@ export function stripComponents(poly: readonly Pt[], a: number, b: number, conve
     out.push({ sMin: p.sMin, sMax: p.sMax, vMin: p.vMin, vMax: p.vMax, bottomEdge: p.bottomEdge, topEdge: p.topEdge, sProbe: p.sProbe });
   }
   return out;
-}
-
-/** True when the polygon is convex (collinear corners allowed). */
-export function isConvex(poly: readonly Pt[]): boolean {
-  const n = poly.length;
-  let sign = 0;
-  for (let i = 0; i < n; i++) {
-    const c = cross(poly[i], poly[(i + 1) % n], poly[(i + 2) % n]);
-    if (Math.abs(c) <= 1e-12) continue;
-    const s = c > 0 ? 1 : -1;
-    if (sign === 0) sign = s;
-    else if (s !== sign) return false;
-  }
-  return true;
-}
-
-/**
- * The strip's piece of a convex polygon (at most one): its v range is reached at the strip's sides or at
- * corners inside the strip. The same result as the general slab method, without its allocations.
- * Written into `into` when given, else a new object; see StripSlicer.convex.
- */
-export function convexStripComponent(poly: readonly Pt[], a: number, b: number, into?: StripComponent): StripComponent | null {
-  return ONE_STRIP.load(poly).convex(a, b, into);
 }
 
 /** Bounding box of plan points as [minX, minY, maxX, maxY]: alias kept for PlanPoint callers. */

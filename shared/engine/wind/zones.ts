@@ -29,9 +29,6 @@ export const HIP_ZONE3_MAX_PITCH = 12 * Math.tan((25 * Math.PI) / 180);
 /** Above 45° (12/12) the figures do not apply. */
 export const WIND_FIGURES_MAX_PITCH = 12;
 
-/** Edge types that bound the roof for the wind zones (isRoofEdgeType below tests the same four). */
-export const ROOF_EDGE_TYPES = new Set(["eave", "rake", "ridge", "hip"]);
-
 export interface EdgeDistance {
   aFt: number;
   leastHorizontalDimensionFt: number;
@@ -313,7 +310,7 @@ const near = (p: Pt, q: Pt) => (p[0] - q[0]) * (p[0] - q[0]) + (p[1] - q[1]) * (
 /** Same as near() on raw coordinates. */
 const nearXY = (px: number, py: number, qx: number, qy: number) => (px - qx) * (px - qx) + (py - qy) * (py - qy) <= 0.01 * 0.01;
 
-/** Whether an edge type is one of ROOF_EDGE_TYPES, by plain comparisons (no Set lookup on the per-plane path). */
+/** Whether an edge bounds the roof for the wind zones: eave, rake, ridge or hip (plain comparisons, no lookup). */
 const isRoofEdgeType = (t: string) => t === "eave" || t === "rake" || t === "ridge" || t === "hip";
 
 /** The roof edges of a plane and its corner pairs (two roof edges meeting at a corner, not in line). */
