@@ -42,6 +42,7 @@ import { tallyTrim, TRIM_KEY_BY_EDGE, type TrimTally } from "./trim";
 import type { EdgeQuantities, FastenersResult, PlaneQuantities, PlaneResult, StackResult, TakeoffOutcome, TakeoffQuantities, TakeoffResult, ZoneFasteners } from "./types";
 import { aboveDeckChannel, type ChannelResult } from "./ventilation/channel";
 import { climateZoneNumber, computeVentilation } from "./ventilation/index";
+import { takeExact } from "./scratch-list";
 import {
   edgeDistance,
   HIP_ZONE3_MAX_PITCH,
@@ -105,21 +106,13 @@ const FASTENER_OPTS: PlaneFastenerOptions = {
 };
 
 /**
- * Each plane's lists (edges, vertices) are gathered in these and copied out with slice() at their exact length:
- * pushed into fresh arrays they grew a store of 17 slots for a handful of items. One array per record shape;
- * emptied after each copy (see takeExact) so that they keep no result alive.
+ * Each plane's lists (edges, vertices) are gathered in these scratch lists and copied out at their exact length
+ * (see ./scratch-list). One array per record shape; emptied after each copy (takeExact) so that they keep no
+ * result alive.
  */
 const EDGE_QUANTITIES: EdgeQuantities[] = [];
 const EDGE_RESULTS: PlaneResult["edges"] = [];
 const VERTICES: PlaneResult["vertices"] = [];
-
-/** items[0 … n − 1] as a new array of exactly n items; those slots of `items` are then cleared. */
-function takeExact<T>(items: T[], n: number): T[] {
-  const out = items.slice(0, n);
-  // Overwritten rather than truncated: a shorter length could give the store back and grow it again.
-  for (let k = 0; k < n; k++) (items as unknown[])[k] = undefined;
-  return out;
-}
 
 /** "full": each plane's whole detail (PlaneResult); "quantities": its quantities only (PlaneQuantities). */
 export type TakeoffDetail = "full" | "quantities";

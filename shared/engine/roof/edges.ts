@@ -16,6 +16,7 @@
  * Pairing compares only edges whose bounding boxes overlap, found through the planes' boxes (a sweep).
  */
 import { TOL } from "../constants";
+import { put } from "../scratch-list";
 import type { Advisory } from "../advisory";
 import { advisory } from "../advisory";
 import type { EdgeType } from "./edge-types";
@@ -426,12 +427,6 @@ function pointAlong(a: Pt, b: Pt, t: number, len: number): Pt {
  * reserves room for 17 at once; a plane has a handful). Entries past the current plane's are left over.
  */
 const planePieces: EdgePiece[] = [];
-
-/** Put `v` at `i` of a scratch list (i ≤ its length, so the list stays packed). */
-function put<T>(list: T[], i: number, v: T): void {
-  if (i < list.length) list[i] = v;
-  else list.push(v);
-}
 
 /**
  * Split and type the edges of all planes. `overrides(planeIdx, edgeIndex)` gives the user's type for an

@@ -11,6 +11,7 @@
  * eave line).
  */
 import { TOL } from "../constants";
+import { put } from "../scratch-list";
 import type { Pt } from "./polygon";
 import { selfIntersection, signedArea } from "./polygon";
 import { slopeFactor } from "./slope";
@@ -153,23 +154,15 @@ const fail = (reason: string, path: (string | number)[]): GeometryError => ({ ok
 const NO_AREA = "The outline has no area (its corners are on one line)";
 
 /**
- * Lists planeGeometry fills, then copies out at their exact length. A list grown by push from [] gets room
- * for 17 entries at the first push (about 150 bytes), while a plane has a handful of corners; a copy made
- * with slice() is as long as its contents and keeps the list's kind (packed, and doubles stored unboxed for
- * the heights), so the result's arrays are the same as before, only without the spare room. planeGeometry
- * calls nothing that could call it again, so one set is enough. Entries past the current plane's are left
- * from earlier planes (they only keep those small objects alive until overwritten).
+ * The scratch lists planeGeometry fills and copies out at their exact length (see ../scratch-list; the heights
+ * stay doubles stored unboxed). planeGeometry calls nothing that could call it again, so one set is enough.
+ * Entries past the current plane's are left from earlier planes (they only keep those small objects alive
+ * until overwritten).
  */
 const scratchPts: Pt[] = [];
 const scratchLocal: Pt[] = [];
 const scratchHeights: number[] = [];
 const scratchEdges: PlaneEdgeGeometry[] = [];
-
-/** Put `v` at `i` of a scratch list (i ≤ its length, so the list stays packed). */
-function put<T>(list: T[], i: number, v: T): void {
-  if (i < list.length) list[i] = v;
-  else list.push(v);
-}
 
 /**
  * Geometry of one plane, or the reason it cannot be a roof plane with the input path to blame.
