@@ -6,7 +6,7 @@
  */
 import { gapStudyInputSchema, type GapStudyInput, type StackInput } from "../schemas/takeoff";
 import type { Advisory } from "./advisory";
-import { computeTakeoffParsed, refusalFromZod, type TakeoffDetail, type TakeoffOutcome } from "./takeoff";
+import { computeTakeoffParsed, refusalFromZod, type TakeoffDetail } from "./takeoff";
 import type { MaterialLine } from "./materials";
 import type { PlaneQuantities, PlaneResult, TakeoffResult } from "./types";
 import { applySpacerAndFoil, SPACER_OPTIONS } from "./stack-options";
@@ -53,8 +53,7 @@ export function computeGapStudyParsed(input: GapStudyInput, detail: TakeoffDetai
   const usedStacks = new Set(input.planes.filter((p) => chosen.has(p.id)).map((p) => p.stackId ?? input.defaultStackId));
   for (const option of GAP_STUDY_OPTIONS) {
     const stacks = input.stacks.map((s) => (usedStacks.has(s.id) ? withSpacer(s, option) : s));
-    const out: TakeoffOutcome<TakeoffResult<PlaneResult | PlaneQuantities>> =
-      detail === "full" ? computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds }) : computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds, detail });
+    const out = computeTakeoffParsed({ ...input, stacks }, { planeIds: input.planeIds, detail });
     if (!out.ok) return out;
     const r = out.result;
     const main = r.stacks.reduce((m, s) => (s.slopedAreaSqFt > m.slopedAreaSqFt ? s : m), r.stacks[0]);

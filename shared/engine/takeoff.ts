@@ -894,6 +894,7 @@ function materialLines(m: {
 
 export function computeTakeoffParsed(input: TakeoffInput, opts?: TakeoffOptions & { detail?: "full" }): TakeoffOutcome;
 export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions & { detail: "quantities" }): TakeoffOutcome<TakeoffQuantities>;
+export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions): TakeoffOutcome<TakeoffResult<PlaneResult | PlaneQuantities>>;
 export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions = {}): TakeoffOutcome<TakeoffResult<PlaneResult | PlaneQuantities>> {
   const { site, rules } = input;
   // ---- geometry --------------------------------------------------------------------------------------
