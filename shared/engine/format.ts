@@ -73,3 +73,12 @@ export const plural = (n: number, one: string, many = `${one}s`) => (n === 1 ? o
 
 /** Round up with a small tolerance so float noise (3.0000000001) does not buy one more. */
 export const ceilTol = (x: number) => Math.max(0, Math.ceil(x - 1e-9));
+
+/**
+ * The last step of a quantity's basis, in words: "0.81, rounded up to 1 roll" (n = ceilTol(exact)), or just
+ * "2 rolls" when the exact figure is already whole. `one` / `many` name the unit.
+ */
+export function roundedUp(exact: number, n: number, one: string, many = `${one}s`): string {
+  const unit = n === 1 ? one : many;
+  return Math.abs(exact - n) <= 1e-9 ? `${n} ${unit}` : `${fmt(exact, 2)}, rounded up to ${n} ${unit}`;
+}

@@ -25,7 +25,7 @@ import {
   underlaymentAdvisories,
   windAdvisories,
 } from "./advisories";
-import { ceilTol, fmt, num, plural, toFixedFast, wasteText } from "./format";
+import { ceilTol, fmt, num, plural, roundedUp, toFixedFast, wasteText } from "./format";
 import { battenPieces, battenTotals, counterBattenTotals } from "./layers/battens";
 import { deckAreaToReplace } from "./layers/deck";
 import { iceBarrierCourses, iceBarrierWidthIn } from "./layers/ice-barrier";
@@ -647,7 +647,7 @@ function materialLines(m: {
       materialLine(
         key,
         Number(toFixedFast(v.lf, 4)),
-        `${v.count} ${plural(v.count, "panel")} ordered to the inch (see each plane's cut list), Σ lengths = ${fmt(v.lf, 2)} lf; offcuts are in the lengths, no further waste`,
+        `${v.count} ${plural(v.count, "panel")} ordered to the inch (see each plane's cut list), lengths adding up to ${fmt(v.lf, 2)} lf; offcuts are in the lengths, no further waste`,
       ),
     );
   }
@@ -701,7 +701,7 @@ function materialLines(m: {
       materialLine(
         "ice-barrier",
         rolls,
-        `${detail} = ${fmt(iceMembraneLf)} lf of ${num(ib.rollWidthIn)} in membrane × ${wasteText(w.iceBarrierPct)} waste ÷ ${fmt(perRoll, 2)} ft net per roll (${num(ib.rollLengthFt)} ft − ${num(ib.endLapIn)} in end lap) = ${fmt(exact, 2)} → ${rolls} ${plural(rolls, "roll")}`,
+        `${detail} = ${fmt(iceMembraneLf)} lf of ${num(ib.rollWidthIn)} in membrane × ${wasteText(w.iceBarrierPct)} waste ÷ ${fmt(perRoll, 2)} ft net per roll (${num(ib.rollLengthFt)} ft - ${num(ib.endLapIn)} in end lap) = ${roundedUp(exact, rolls, "roll")}`,
       ),
     );
   }
@@ -721,7 +721,7 @@ function materialLines(m: {
       materialLine(
         `batten-${nominal}` as MaterialKey,
         pcs,
-        `${v.rows} ${plural(v.rows, "row")} across the slope = ${fmt(v.lf)} lf × ${wasteText(w.battensPct)} waste ÷ ${num(stock)} ft stock = ${fmt((v.lf * (1 + w.battensPct / 100)) / stock, 2)} → ${pcs} ${plural(pcs, "piece")} (${num(lum.thicknessIn)} × ${num(lum.widthIn)} in dressed)`,
+        `${v.rows} ${plural(v.rows, "row")} across the slope = ${fmt(v.lf)} lf × ${wasteText(w.battensPct)} waste ÷ ${num(stock)} ft stock = ${roundedUp((v.lf * (1 + w.battensPct / 100)) / stock, pcs, "piece")} (${num(lum.thicknessIn)} × ${num(lum.widthIn)} in dressed)`,
       ),
     );
   }
@@ -731,7 +731,7 @@ function materialLines(m: {
       materialLine(
         `counter-batten-${nominal}` as MaterialKey,
         pcs,
-        `${v.runs} ${plural(v.runs, "run")} up the slope = ${fmt(v.lf)} lf × ${wasteText(w.battensPct)} waste ÷ ${num(stock)} ft stock = ${fmt((v.lf * (1 + w.battensPct / 100)) / stock, 2)} → ${pcs} ${plural(pcs, "piece")}`,
+        `${v.runs} ${plural(v.runs, "run")} up the slope = ${fmt(v.lf)} lf × ${wasteText(w.battensPct)} waste ÷ ${num(stock)} ft stock = ${roundedUp((v.lf * (1 + w.battensPct / 100)) / stock, pcs, "piece")}`,
       ),
     );
   }
@@ -747,7 +747,7 @@ function materialLines(m: {
       materialLine(
         "deck-sheet",
         deckSheets,
-        `${fmt(deckArea)} ft² of deck to replace × ${wasteText(w.deckPct)} waste ÷ ${num(rules.deck.sheetSqFt)} ft² per sheet = ${fmt(exact, 2)} → ${deckSheets} ${plural(deckSheets, "sheet")}`,
+        `${fmt(deckArea)} ft² of deck to replace × ${wasteText(w.deckPct)} waste ÷ ${num(rules.deck.sheetSqFt)} ft² per sheet = ${roundedUp(exact, deckSheets, "sheet")}`,
       ),
     );
   }
@@ -755,26 +755,26 @@ function materialLines(m: {
   for (const t of trim.byType) {
     const pieces = t.pieces;
     const qty = ceilTol(pieces * (1 + w.trimPct / 100));
-    // Equal runs are one term: "4 × 36 ft → 4" (four runs of 36 ft, 4 pieces each). Runs are first counted by
+    // Equal runs are one term: "4 × 36.0 ft at 4 pieces each" (four runs of 36 ft). Runs are first counted by
     // their exact length (a run's pieces follow from its length; see tallyTrim), and each distinct length is
     // written once; two lengths that print alike then merge into one term, in the order their first run came.
     const same = new Map<string, number>();
     const lengths = t.lengthsFt;
     for (let j = 0; j < lengths.length; j++) {
-      const key = `${fmt(lengths[j])} ft → ${t.piecesOfLength[j]}`;
+      const key = `${fmt(lengths[j])} ft at ${t.piecesOfLength[j]} ${plural(t.piecesOfLength[j], "piece")}`;
       same.set(key, (same.get(key) ?? 0) + t.runsOfLength[j]);
     }
     let list = "";
     for (const [key, n] of same) {
       if (list) list += ", ";
-      list += n > 1 ? `${n} × ${key}` : key;
+      list += n > 1 ? `${n} × ${key} each` : key;
     }
     lines.push(
       materialLine(
         TRIM_KEY_BY_EDGE[t.type],
         qty,
-        `${t.runs} ${plural(t.runs, "run")} (${list}); pieces per run = ceil((L − ${num(rules.trim.endLapIn)} in lap) ÷ (${num(rules.trim.stockLengthFt)} ft − lap)) = ${pieces}` +
-          (w.trimPct ? ` × ${wasteText(w.trimPct)} waste → ${qty}` : ""),
+        `${t.runs} ${plural(t.runs, "run")} (${list}); pieces per run = ceil((L - ${num(rules.trim.endLapIn)} in lap) ÷ (${num(rules.trim.stockLengthFt)} ft - lap)) = ${pieces}` +
+          (w.trimPct ? ` × ${wasteText(w.trimPct)} waste = ${roundedUp(pieces * (1 + w.trimPct / 100), qty, "piece")}` : ""),
       ),
     );
   }
@@ -787,7 +787,7 @@ function materialLines(m: {
       materialLine(
         "valley-membrane",
         rolls,
-        `${fmt(edgeTotals.valleyLf)} lf of valley × ${wasteText(w.iceBarrierPct)} waste ÷ ${fmt(perRoll, 2)} ft net per ${num(ib.rollWidthIn)} in roll = ${fmt(exact, 2)} → ${rolls} ${plural(rolls, "roll")}`,
+        `${fmt(edgeTotals.valleyLf)} lf of valley × ${wasteText(w.iceBarrierPct)} waste ÷ ${fmt(perRoll, 2)} ft net per ${num(ib.rollWidthIn)} in roll = ${roundedUp(exact, rolls, "roll")}`,
       ),
     );
   }
@@ -827,7 +827,7 @@ function materialLines(m: {
         "sealant-tube",
         tubes,
         `${fmt(wallLf)} lf at wall and transition flashings + ${trimLaps} trim ${plural(trimLaps, "lap")} × ${num(rules.sealant.lfPerTrimLap)} ft + ${fmt(sealPenLf)} lf at penetrations = ` +
-          `${fmt(sealLf)} lf ÷ ${num(rules.sealant.lfPerTube)} lf per tube = ${fmt(exact, 2)} → ${tubes} ${plural(tubes, "tube")}`,
+          `${fmt(sealLf)} lf ÷ ${num(rules.sealant.lfPerTube)} lf per tube = ${roundedUp(exact, tubes, "tube")}`,
       ),
     );
   }
@@ -841,7 +841,7 @@ function materialLines(m: {
         "butyl-tape",
         rolls,
         `eaves ${fmt(edgeTotals.eaveLf)} + 2 × ridges ${fmt(edgeTotals.ridgeLf)} + 2 × hips ${fmt(edgeTotals.hipLf)} + 2 × valleys ${fmt(edgeTotals.valleyLf)} + walls and transitions ${fmt(wallLf)} = ` +
-          `${fmt(butylLf)} lf ÷ ${num(rules.butyl.rollLengthFt)} ft per roll = ${fmt(exact, 2)} → ${rolls} ${plural(rolls, "roll")}`,
+          `${fmt(butylLf)} lf ÷ ${num(rules.butyl.rollLengthFt)} ft per roll = ${roundedUp(exact, rolls, "roll")}`,
       ),
     );
   }
@@ -852,7 +852,7 @@ function materialLines(m: {
     if (!(count > 0)) return;
     const exact = (count * (1 + fw / 100)) / perBox;
     const boxes = ceilTol(exact);
-    lines.push(materialLine(key, boxes, `${fmt(count, 0)} ${what} × ${wasteText(fw)} waste ÷ ${perBox} per box = ${fmt(exact, 2)} → ${boxes} ${plural(boxes, "box", "boxes")}`));
+    lines.push(materialLine(key, boxes, `${fmt(count, 0)} ${what} × ${wasteText(fw)} waste ÷ ${perBox} per box = ${roundedUp(exact, boxes, "box", "boxes")}`));
   };
   if (clips > 0) {
     const perClipBox = rules.fasteners.clipsPerBox;
@@ -862,7 +862,7 @@ function materialLines(m: {
       materialLine(
         "clip",
         n,
-        `${clips} clips placed (per clip line 1 + Σ ceil(zone segment ÷ zone spacing)) × ${wasteText(fw)} waste${perClipBox > 1 ? ` ÷ ${perClipBox} per box` : ""} = ${fmt(exact, 2)} → ${n}`,
+        `${clips} clips placed (per clip line 1 + the sum of ceil(zone segment ÷ zone spacing)) × ${wasteText(fw)} waste${perClipBox > 1 ? ` ÷ ${perClipBox} per box` : ""} = ${perClipBox > 1 ? roundedUp(exact, n, "box", "boxes") : roundedUp(exact, n, "clip")}`,
       ),
     );
   }
@@ -879,13 +879,13 @@ function materialLines(m: {
         materialLine(
           "vent-ridge",
           q,
-          `ridge ${fmt(edgeTotals.ridgeLf)} lf less 1 ft at each end of ${ridgeRuns.length} ${plural(ridgeRuns.length, "ridge")}${dominantStack.ventilation.ventHips ? " + vented hips" : ""}${dominantStack.ventilation.ventHeadwalls ? " + vented headwalls" : ""} = ${fmt(vent.result.exhaustLf)} lf → ${q} lf`,
+          `ridge ${fmt(edgeTotals.ridgeLf)} lf less 1 ft at each end of ${ridgeRuns.length} ${plural(ridgeRuns.length, "ridge")}${dominantStack.ventilation.ventHips ? " + vented hips" : ""}${dominantStack.ventilation.ventHeadwalls ? " + vented headwalls" : ""} = ${roundedUp(vent.result.exhaustLf, q, "lf", "lf")}`,
         ),
       );
     }
     if (vent.result.intakeLf > 0) {
       const q = ceilTol(vent.result.intakeLf);
-      lines.push(materialLine("vent-intake", q, `eaves ${fmt(vent.result.intakeLf)} lf → ${q} lf`));
+      lines.push(materialLine("vent-intake", q, `eaves ${roundedUp(vent.result.intakeLf, q, "lf", "lf")}`));
     }
   }
   lines.sort((a, b) => MATERIAL_RANK[a.key] - MATERIAL_RANK[b.key]);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { fmt, num, toFixedFast, wasteText } from "@shared/engine/format";
+import { fmt, num, roundedUp, toFixedFast, wasteText } from "@shared/engine/format";
 
 // The reference throughout is ECMA-262 Number.prototype.toFixed itself: toFixedFast must give its very text
 // for every number and 0 … 4 digits, and fmt the text of toFixed with separators inserted by the rule below.
@@ -111,3 +111,16 @@ function numReference(n: number, digits = 2): string {
   if (Math.abs(r) < 1000) return String(r);
   return fmtReference(r, (r.toString().split(".")[1] ?? "").length);
 }
+
+describe("roundedUp (the last step of a basis, in words)", () => {
+  it("names the exact figure and the whole count it is rounded up to", () => {
+    expect(roundedUp(0.81, 1, "roll")).toBe("0.81, rounded up to 1 roll");
+    expect(roundedUp(1566.71, 1567, "piece")).toBe("1,566.71, rounded up to 1567 pieces");
+    expect(roundedUp(4.41, 5, "box", "boxes")).toBe("4.41, rounded up to 5 boxes");
+  });
+  it("gives the count alone when the figure is already whole (within the rounding tolerance)", () => {
+    expect(roundedUp(2, 2, "roll")).toBe("2 rolls");
+    expect(roundedUp(1036 + 1e-12, 1036, "lf", "lf")).toBe("1036 lf");
+    expect(roundedUp(0, 0, "tube")).toBe("0 tubes");
+  });
+});

@@ -25,7 +25,7 @@ describe("underlayment rolls", () => {
     // 670.82 × 1.10 / 914.83 = 0.807 → 1
     expect(r.exact).toBeCloseTo(0.8066, 3);
     expect(r.rolls).toBe(1);
-    expect(r.basis).toBe("670.8 ft² sloped × 1.10 waste ÷ 914.8 ft² net per roll (48 in − 4 in lap × 250 ft − 6 in lap) = 0.81 → 1 roll");
+    expect(r.basis).toBe("670.8 ft² sloped × 1.10 waste ÷ 914.8 ft² net per roll ((48 in - 4 in lap) × (250 ft - 6 in lap)) = 0.81, rounded up to 1 roll");
     // two layers double the area
     expect(rollsFor(670.82, 10, { rollWidthIn: 48, rollLengthFt: 250, sideLapIn: 4, endLapIn: 6 }, { layers: 2 }).rolls).toBe(2);
   });
@@ -71,7 +71,7 @@ describe("ice barrier (IRC R905.1.2)", () => {
     const line = r.result.materials.find((m) => m.key === "ice-barrier")!;
     // 40 lf × 1.05 ÷ 64.5 ft net per 65 ft roll = 0.65 → 1
     expect(line.quantity).toBe(1);
-    expect(line.basis).toBe("a: 20.0 ft eave × 2 courses (37.9 in up the slope) = 40.0 lf of 36 in membrane × 1.05 waste ÷ 64.50 ft net per roll (65 ft − 6 in end lap) = 0.65 → 1 roll");
+    expect(line.basis).toBe("a: 20.0 ft eave × 2 courses (37.9 in up the slope) = 40.0 lf of 36 in membrane × 1.05 waste ÷ 64.50 ft net per roll (65 ft - 6 in end lap) = 0.65, rounded up to 1 roll");
   });
 
   it("planes with the same width and courses are one term of the basis (a hip roof at one pitch)", () => {

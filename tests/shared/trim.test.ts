@@ -64,7 +64,7 @@ describe("trim basis in the takeoff", () => {
     const eave = r.result.materials.find((m) => m.key === "trim-eave")!;
     // common practice, no published source: pieces per run = ceil((L − 3 in) ÷ (10 ft − 3 in));
     // 40 ft: 477 ÷ 117 = 4.08 → 5; 30 ft: 357 ÷ 117 = 3.05 → 4; 2 × 5 + 2 × 4 = 18
-    expect(eave.basis).toBe("4 runs (2 × 40.0 ft → 5, 2 × 30.0 ft → 4); pieces per run = ceil((L − 3 in lap) ÷ (10 ft − lap)) = 18");
+    expect(eave.basis).toBe("4 runs (2 × 40.0 ft at 5 pieces each, 2 × 30.0 ft at 4 pieces each); pieces per run = ceil((L - 3 in lap) ÷ (10 ft - lap)) = 18");
     expect(eave.quantity).toBe(18);
   });
 });
