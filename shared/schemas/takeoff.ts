@@ -51,6 +51,15 @@ const planFt = z.number({ error: "Enter a number" }).min(-MAX_PLAN_FT, `At least
 // rules
 // ---------------------------------------------------------------------------------------------------
 
+/**
+ * A roll's laps must leave some of it: a side lap as wide as the roll, or an end lap as long, would give no
+ * coverage per roll (no count, or a division by zero).
+ */
+function checkRollLaps(r: { rollWidthIn: number; rollLengthFt: number; sideLapIn: number; endLapIn: number }, ctx: z.RefinementCtx): void {
+  if (!(r.sideLapIn < r.rollWidthIn)) ctx.addIssue({ code: "custom", message: "The side lap must be less than the roll width", path: ["sideLapIn"] });
+  if (!(r.endLapIn / 12 < r.rollLengthFt)) ctx.addIssue({ code: "custom", message: "The end lap must be less than the roll length", path: ["endLapIn"] });
+}
+
 const roll = (d: { rollWidthIn: number; rollLengthFt: number; sideLapIn: number; endLapIn: number }) =>
   z
     .object({
@@ -59,7 +68,8 @@ const roll = (d: { rollWidthIn: number; rollLengthFt: number; sideLapIn: number;
       sideLapIn: size.default(d.sideLapIn),
       endLapIn: size.default(d.endLapIn),
     })
-    .prefault({});
+    .prefault({})
+    .superRefine(checkRollLaps);
 
 export const rulesSchema = z
   .object({
@@ -95,7 +105,8 @@ export const rulesSchema = z
         endLapIn: size.default(6),
         insideWallIn: size.default(24),
       })
-      .prefault({}),
+      .prefault({})
+      .superRefine(checkRollLaps),
     /** Spacer mats, butted not lapped [common practice; sizes maker-dependent, editable]. */
     mesh: roll({ rollWidthIn: 39, rollLengthFt: 75, sideLapIn: 0, endLapIn: 0 }),
     dimpled: roll({ rollWidthIn: 48, rollLengthFt: 50, sideLapIn: 0, endLapIn: 0 }),

@@ -71,6 +71,11 @@ describe("bad input → field paths (the route answers 400)", () => {
     ["an edge type for a missing edge", (b: ReturnType<typeof base>) => (b.planes[0].edgeTypes = { "7": "ridge" }), "planes.0.edgeTypes.7"],
     ["a climate zone like 9Z", (b: ReturnType<typeof base>) => ((b as Record<string, unknown>).site = { climateZone: "9Z" }), "site.climateZone"],
     ["501 planes", (b: ReturnType<typeof base>) => (b.planes = planes501()), "planes"],
+    // A lap as wide or as long as its roll leaves no coverage per roll (no count, or a division by zero).
+    ["an ice-barrier side lap as wide as the roll", (b: ReturnType<typeof base>) => ((b as Record<string, unknown>).rules = { iceBarrier: { rollWidthIn: 36, sideLapIn: 36 } }), "rules.iceBarrier.sideLapIn"],
+    ["an ice-barrier end lap as long as the roll", (b: ReturnType<typeof base>) => ((b as Record<string, unknown>).rules = { iceBarrier: { rollLengthFt: 1, endLapIn: 12 } }), "rules.iceBarrier.endLapIn"],
+    ["an underlayment side lap wider than the roll", (b: ReturnType<typeof base>) => ((b as Record<string, unknown>).rules = { underlayment: { synthetic: { sideLapIn: 50 } } }), "rules.underlayment.synthetic.sideLapIn"],
+    ["a foil end lap longer than the roll", (b: ReturnType<typeof base>) => ((b as Record<string, unknown>).rules = { foil: { rollLengthFt: 2, endLapIn: 30 } }), "rules.foil.endLapIn"],
   ])("%s", (_name, mutate, path) => {
     const b = base();
     mutate(b);
