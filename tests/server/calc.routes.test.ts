@@ -5,6 +5,7 @@ import { signedInAgent } from "../helpers/auth";
 import { truncateAll } from "../helpers/db";
 import { gableRoof } from "../../shared/engine/roof/generators";
 import { computeTakeoff, computeTakeoffQuantities } from "../../shared/engine/takeoff";
+import { gapStudyQuantitiesSchema, gapStudyResultSchema, takeoffQuantitiesSchema, takeoffResultSchema } from "../../shared/schemas/takeoff-result";
 
 beforeEach(truncateAll);
 
@@ -34,6 +35,8 @@ describe("POST /api/calc/takeoff", () => {
     // The route is the engine: same input, same numbers (each plane's quantities unless detail=full).
     expect(res.body.data).toEqual(JSON.parse(JSON.stringify(expected.ok && expected.result)));
     expect(res.body.data.planes[0]).not.toHaveProperty("windZones");
+    // The answer is what the output schema describes, key for key (strict objects).
+    expect(takeoffQuantitiesSchema.safeParse(res.body.data).error).toBeUndefined();
     // 40 × 30 ft gable at 6/12: plan 1200 ft², slope factor √(144+36)/12 = 1.1180 (rafter tables), sloped 1341.6 ft².
     expect(res.body.data.totals.planAreaSqFt).toBeCloseTo(1200, 6);
     expect(res.body.data.totals.slopedAreaSqFt).toBeCloseTo(1200 * Math.sqrt(180) / 12, 6);
@@ -49,6 +52,7 @@ describe("POST /api/calc/takeoff", () => {
     expect(res.body.data).toEqual(JSON.parse(JSON.stringify(expected.ok && expected.result)));
     expect(res.body.data.planes[0].windZones.widths.zone2PlanFt).toBeGreaterThan(0);
     expect(res.body.data.planes[0].vertices).toHaveLength(4);
+    expect(takeoffResultSchema.safeParse(res.body.data).error).toBeUndefined();
     const lean = await agent.post("/api/calc/takeoff?detail=quantities").set("X-CSRF-Token", token).send(gableInput());
     expect(lean.status).toBe(200);
     // The roof-wide figures do not depend on the detail asked for.
@@ -103,12 +107,14 @@ describe("POST /api/calc/gap-study", () => {
     for (const o of res.body.data.options) expect(o.result.totals.planAreaSqFt).toBeGreaterThan(0);
     // Each plane's quantities by default, its whole detail with detail=full.
     expect(Object.keys(res.body.data.options[0].result.planes[0])).not.toContain("layers");
+    expect(gapStudyQuantitiesSchema.safeParse(res.body.data).error).toBeUndefined();
     const full = await agent
       .post("/api/calc/gap-study?detail=full")
       .set("X-CSRF-Token", token)
       .send({ ...gableInput(), planeIds: ["p-s"] });
     expect(full.status).toBe(200);
     expect(full.body.data.options[3].result.planes[0].layers.meshSqFt).toBeGreaterThan(0);
+    expect(gapStudyResultSchema.safeParse(full.body.data).error).toBeUndefined();
     expect(full.body.data.options.map((o: { summary: unknown }) => o.summary)).toEqual(res.body.data.options.map((o: { summary: unknown }) => o.summary));
   });
 
