@@ -4,6 +4,7 @@
  */
 import type { Advisory } from "./advisory";
 import type { MaterialLine } from "./materials";
+import type { LumberNominal } from "./lumber";
 import type { EdgeType } from "./roof/edge-types";
 import type { EdgeTotals } from "./roof/edges";
 import type { CutListEntry } from "./roof/panels";
@@ -56,8 +57,8 @@ export interface PanelsResult extends PanelQuantities {
 export interface PlaneLayersResult {
   underlaymentSqFt: number;
   iceBarrier: null | { widthIn: number; courses: number; eaveLf: number; membraneLf: number; note?: string };
-  battens: null | { nominal: string; rows: number; lf: number; fasteners: number; spacingIn: number };
-  counterBattens: null | { nominal: string; runs: number; lf: number; fasteners: number; spacingIn: number };
+  battens: null | { nominal: LumberNominal; rows: number; lf: number; fasteners: number; spacingIn: number };
+  counterBattens: null | { nominal: LumberNominal; runs: number; lf: number; fasteners: number; spacingIn: number };
   meshSqFt: number;
   dimpledSqFt: number;
   foilSqFt: number;

@@ -15,7 +15,7 @@ import { SPACER_OPTIONS } from "../engine/stack-options";
 import { MATERIAL_CATEGORIES, MATERIAL_KEYS, type MaterialKey } from "../engine/materials";
 import { EDGE_TYPES } from "../engine/roof/edge-types";
 import { WIND_ZONES } from "../engine/wind/zones";
-import { PANEL_SYSTEMS, SPACER_KINDS } from "./takeoff";
+import { LUMBER_NOMINALS, PANEL_SYSTEMS, SPACER_KINDS } from "./takeoff";
 
 /** Whether the assembly still matches a tested uplift assembly (asked for with site.wind.ratedAssemblyRequired). */
 export const UPLIFT_ASSEMBLY_STATES = ["tested", "not-tested-needs-review", "not-required"] as const;
@@ -120,7 +120,7 @@ export const planeLayersSchema = z.strictObject({
   battens: z
     .strictObject({
       /** Lumber nominal size, e.g. "1x4". */
-      nominal: z.string(),
+      nominal: z.enum(LUMBER_NOMINALS),
       rows: count(),
       lf: z.number(),
       fasteners: count(),
@@ -129,7 +129,7 @@ export const planeLayersSchema = z.strictObject({
     .nullable(),
   counterBattens: z
     .strictObject({
-      nominal: z.string(),
+      nominal: z.enum(LUMBER_NOMINALS),
       runs: count(),
       lf: z.number(),
       fasteners: count(),

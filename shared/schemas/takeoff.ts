@@ -7,6 +7,7 @@
  * Defaults are tagged like the engine's tests: [published] with the source, [common practice], [from memory].
  */
 import { z } from "zod";
+import { LUMBER_NOMINALS } from "../engine/lumber";
 import { EDGE_TYPES } from "../engine/roof/edge-types";
 import { planeGeometryOfParsed, isGeometryError } from "../engine/roof/geometry";
 
@@ -29,7 +30,8 @@ export const ATTIC_TYPES = ["vented", "unvented", "cathedral"] as const;
 export const CODE_EDITIONS = [2012, 2015, 2018, 2021, 2024] as const;
 export const UNDERLAYMENT_KINDS = ["self-adhered", "synthetic", "felt"] as const;
 export const SPACER_KINDS = ["none", "battens", "mesh", "dimpled"] as const;
-export const LUMBER_NOMINALS = ["1x3", "1x4", "2x2", "2x4"] as const;
+/** Batten and counter-batten sizes (one list: the engine's lumber table). */
+export { LUMBER_NOMINALS };
 export const PANEL_SYSTEMS = ["standing-seam", "exposed-fastener"] as const;
 export const PANEL_STARTS = ["left", "right", "centred"] as const;
 export const PENETRATION_KINDS = ["pipe", "chimney", "skylight", "vent", "other"] as const;
