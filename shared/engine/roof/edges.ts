@@ -16,11 +16,10 @@
  * Pairing compares only edges whose bounding boxes overlap, found through the planes' boxes (a sweep).
  */
 import { TOL } from "../constants";
-import { put } from "../scratch-list";
 import type { Advisory } from "../advisory";
 import { advisory } from "../advisory";
 import type { EdgeType } from "./edge-types";
-import { heightAt, hypot2, type PlaneGeometry } from "./geometry";
+import { hypot2, type PlaneGeometry } from "./geometry";
 import { sortPrefix, type Pt } from "./polygon";
 
 /** Probe distance into each plane for the hip/valley test, ft. */
@@ -130,9 +129,10 @@ class EdgeTable {
   px1 = new Float64Array(0);
   py0 = new Float64Array(0);
   py1 = new Float64Array(0);
-  /** Plane indexes sorted by px0, then the sweep's active planes. */
+  /** Plane indexes sorted by px0, then the sweep's active planes; `planeTmp` is the merge sort's buffer. */
   planeOrder = new Int32Array(0);
   planeActive = new Int32Array(0);
+  planeTmp = new Int32Array(0);
   /** First edge row of each plane (rowStart[p] … rowStart[p + 1] − 1), and each row's side (falls / level / rises). */
   rowStart = new Int32Array(0);
   sides = new Int8Array(0);
@@ -208,6 +208,7 @@ class EdgeTable {
       this.py1 = new Float64Array(c);
       this.planeOrder = new Int32Array(c);
       this.planeActive = new Int32Array(c);
+      this.planeTmp = new Int32Array(c);
       this.rowStart = new Int32Array(c + 1);
     }
   }
@@ -267,7 +268,7 @@ function findOverlaps(planes: PlaneGeometry[]): void {
     py1[p] = by1;
     planeOrder[p] = p;
   }
-  planeOrder.subarray(0, nPlanes).sort((i, j) => px0[i] - px0[j] || i - j);
+  sortByKey(planeOrder, T.planeTmp, px0, nPlanes);
 
   T.nOv = 0;
   // Sweep over the planes by px0: each plane against the earlier ones whose boxes overlap its own.
@@ -283,13 +284,19 @@ function findOverlaps(planes: PlaneGeometry[]): void {
     for (let k = 0; k < nActive; k++) {
       const o = planeActive[k];
       if (py1[o] < py0[c] || py1[c] < py0[o]) continue;
+      const oEnd = rowStart[o + 1];
       for (let i = rowStart[c]; i < rowStart[c + 1]; i++) {
         // An edge no longer than TOL overlaps nothing.
         if (len[i] <= TOL) continue;
-        for (let j = rowStart[o]; j < rowStart[o + 1]; j++) {
+        const ix0 = x0[i], ix1 = x1[i], iy0 = y0[i], iy1 = y1[i];
+        for (let j = rowStart[o]; j < oEnd; j++) {
           if (len[j] <= TOL) continue;
+          // Boxes apart: no overlap. (overlapPair's own first test, made here without the call and on both
+          // sides, since which edge is `cur` is not settled yet; x0 ≤ x1 on every row, so for the later edge
+          // of the two its start is never past the other's end, and the two tests reject the same pairs.)
+          if (x1[j] < ix0 || ix1 < x0[j] || y1[j] < iy0 || iy1 < y0[j]) continue;
           // The later of the two in the sweep order is `cur`.
-          if (x0[i] < x0[j] || (x0[i] === x0[j] && i < j)) overlapPair(j, i);
+          if (ix0 < x0[j] || (ix0 === x0[j] && i < j)) overlapPair(j, i);
           else overlapPair(i, j);
         }
       }
@@ -319,6 +326,55 @@ function findOverlaps(planes: PlaneGeometry[]): void {
       ovList[j + 1] = o;
     }
   }
+}
+
+/**
+ * Sort the indexes order[0 … n − 1] by (key[i], i): by key, ties by index. The keys are finite (plan
+ * coordinates), so this is a strict total order and any correct sort gives the one result; this one
+ * replaces TypedArray.prototype.sort with a comparator, which calls the comparator through the runtime and
+ * was a tenth of the overlap search. Insertion sort for short lists, else a bottom-up merge sort through
+ * `tmp` (as long as `order`).
+ */
+function sortByKey(order: Int32Array, tmp: Int32Array, key: Float64Array, n: number): void {
+  if (n <= 24) {
+    for (let i = 1; i < n; i++) {
+      const x = order[i];
+      const kx = key[x];
+      let j = i - 1;
+      while (j >= 0 && (key[order[j]] > kx || (key[order[j]] === kx && order[j] > x))) {
+        order[j + 1] = order[j];
+        j--;
+      }
+      order[j + 1] = x;
+    }
+    return;
+  }
+  let src = order;
+  let dst = tmp;
+  for (let width = 1; width < n; width *= 2) {
+    for (let lo = 0; lo < n; lo += 2 * width) {
+      const mid = Math.min(lo + width, n);
+      const hi = Math.min(lo + 2 * width, n);
+      let i = lo, j = mid, k = lo;
+      while (i < mid && j < hi) {
+        const a = src[i], b = src[j];
+        // Take from the right run only when it is strictly before (by key, then index).
+        if (key[b] < key[a] || (key[b] === key[a] && b < a)) {
+          dst[k++] = b;
+          j++;
+        } else {
+          dst[k++] = a;
+          i++;
+        }
+      }
+      while (i < mid) dst[k++] = src[i++];
+      while (j < hi) dst[k++] = src[j++];
+    }
+    const t = src;
+    src = dst;
+    dst = t;
+  }
+  if (src !== order) order.set(src.subarray(0, n));
 }
 
 /**
@@ -454,12 +510,15 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
   const { ovList, ovStart, ovT0, ovT1, ovPartner, plane: planeOfRow, edge: edgeOfRow } = T;
   const byPlane: EdgePiece[][] = [];
   const advisories: Advisory[] = [];
-  // Plane pairs already warned about, as lo × nPlanes + hi.
-  const mismatch = new Set<number>();
+  // Plane pairs already warned about, as lo × nPlanes + hi (made on the first warning: most roofs have none).
+  let mismatch: Set<number> | null = null;
   const totals = zeroTotals();
 
   for (let p = 0; p < nPlanes; p++) {
     const g = planes[p];
+    // heightAt(g, ·) written out below with the very operations of heightAt, so the very numbers: it is not
+    // always inlined, and a call that is not returns each height as a new boxed number.
+    const gox = g.origin[0], goy = g.origin[1], gux = g.up[0], guy = g.up[1], gBase = g.baseElevationFt, gPitch = g.pitch;
     const pieces = planePieces;
     let nPieces = 0;
     const edges = g.edges;
@@ -476,7 +535,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         const computedType = typeUnshared(horizontal, mine);
         const over = overrides(p, ed.index);
         const type = over ?? computedType;
-        put(pieces, nPieces++, {
+        putItem(pieces, nPieces++, {
           planeIdx: p,
           planeId: g.id,
           edgeIndex: ed.index,
@@ -529,10 +588,12 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         }
         const from = pointAlong(ed.from, ed.to, t0, len);
         const to = pointAlong(ed.from, ed.to, t1, len);
-        const z0 = heightAt(g, from);
-        const z1 = heightAt(g, to);
+        const z0 = gBase + (((from[0] - gox) * gux + (from[1] - goy) * guy) * gPitch) / 12;
+        const z1 = gBase + (((to[0] - gox) * gux + (to[1] - goy) * guy) * gPitch) / 12;
         const plan = t1 - t0;
-        const trueLengthFt = hypot2(plan, z1 - z0);
+        // A piece that is its whole edge (the usual shared edge) has the edge's own numbers: the edge's true
+        // length is that very hypot2 (planeGeometry), as the unshared pieces above take it.
+        const trueLengthFt = plan === len && z0 === ed.z0 && z1 === ed.z1 ? ed.trueLengthFt : hypot2(plan, z1 - z0);
         const horizontal = Math.abs(z1 - z0) <= TOL;
         // A piece along no other plane is typed from this plane alone; a shared one from both, and counted
         // (and checked for a height mismatch) on the plane that comes first.
@@ -542,6 +603,9 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         let qi = -1;
         let qEdge = -1;
         let first = true;
+        // The partner plane's heights at the piece's ends (heightAt(q, ·) written out, as above).
+        let qz0 = 0;
+        let qz1 = 0;
         if (partner === -1) {
           computedType = typeUnshared(horizontal, mine);
           over = overrides(p, ed.index);
@@ -552,13 +616,16 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
           q = planes[qi];
           const theirs = sides[partnerRow];
           first = p < qi;
+          const qox = q.origin[0], qoy = q.origin[1], qux = q.up[0], quy = q.up[1];
+          qz0 = q.baseElevationFt + (((from[0] - qox) * qux + (from[1] - qoy) * quy) * q.pitch) / 12;
+          qz1 = q.baseElevationFt + (((to[0] - qox) * qux + (to[1] - qoy) * quy) * q.pitch) / 12;
           // Type from the first plane's view of horizontality so both sides agree.
-          const horizontalForType = first ? horizontal : Math.abs(heightAt(q, from) - heightAt(q, to)) <= TOL;
+          const horizontalForType = first ? horizontal : Math.abs(qz0 - qz1) <= TOL;
           computedType = typeShared(horizontalForType, mine, theirs);
           over = first ? overrides(p, ed.index) ?? overrides(qi, qEdge) : overrides(qi, qEdge) ?? overrides(p, ed.index);
         }
         const type = over ?? computedType;
-        put(pieces, nPieces++, {
+        putItem(pieces, nPieces++, {
           planeIdx: p,
           planeId: g.id,
           edgeIndex: ed.index,
@@ -580,10 +647,11 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
         if (!first) continue;
         addToTotals(totals, type, trueLengthFt);
         if (q === null) continue;
-        const d0 = Math.abs(heightAt(q, from) - z0);
-        const d1 = Math.abs(heightAt(q, to) - z1);
+        const d0 = Math.abs(qz0 - z0);
+        const d1 = Math.abs(qz1 - z1);
         const key = p * nPlanes + qi;
-        if (Math.max(d0, d1) > HEIGHT_MISMATCH_FT && !mismatch.has(key)) {
+        if (Math.max(d0, d1) > HEIGHT_MISMATCH_FT && !(mismatch !== null && mismatch.has(key))) {
+          if (mismatch === null) mismatch = new Set<number>();
           mismatch.add(key);
           advisories.push(
             advisory(
@@ -601,6 +669,15 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
   }
 
   return { byPlane, totals, runs: buildRuns(byPlane), advisories };
+}
+
+/**
+ * Stores `v` at `i` of one of this file's scratch lists of objects and strings (i ≤ its length: stored, or
+ * pushed at the end; see ../scratch-list). Its own function, so that its store only meets these lists.
+ */
+function putItem<T>(list: T[], i: number, v: T): void {
+  if (i < list.length) list[i] = v;
+  else list.push(v);
 }
 
 /** A small number per edge type (8 for anything else), so pieces' types compare as integers. */
@@ -696,42 +773,42 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
   let n = 0;
   for (let k = 0; k < byPlane.length; k++) {
     const ps = byPlane[k];
-    for (let i = 0; i < ps.length; i++) if (ps[i].counted) put(pieces, n++, ps[i]);
+    for (let i = 0; i < ps.length; i++) if (ps[i].counted) putItem(pieces, n++, ps[i]);
   }
   S.reserve(n);
   const { ends, dir, type, parent, nextEnd, cellKey, cellHead } = S;
-  const find = (i: number): number => {
-    while (parent[i] !== i) {
-      parent[i] = parent[parent[i]];
-      i = parent[i];
-    }
-    return i;
-  };
   let maxAbs = 0;
   for (let i = 0; i < n; i++) {
     const p = pieces[i];
-    ends[i * 4] = p.from[0];
-    ends[i * 4 + 1] = p.from[1];
-    ends[i * 4 + 2] = p.to[0];
-    ends[i * 4 + 3] = p.to[1];
-    maxAbs = Math.max(maxAbs, Math.abs(p.from[0]), Math.abs(p.from[1]), Math.abs(p.to[0]), Math.abs(p.to[1]));
+    const fx = p.from[0], fy = p.from[1], tx = p.to[0], ty = p.to[1];
+    ends[i * 4] = fx;
+    ends[i * 4 + 1] = fy;
+    ends[i * 4 + 2] = tx;
+    ends[i * 4 + 3] = ty;
+    maxAbs = Math.max(maxAbs, Math.abs(fx), Math.abs(fy), Math.abs(tx), Math.abs(ty));
     type[i] = typeCode(p.type);
     parent[i] = i;
     // 3D directions: two rakes meeting at a gable's apex are parallel in plan but not one straight line.
-    const dx = p.to[0] - p.from[0];
-    const dy = p.to[1] - p.from[1];
+    const dx = tx - fx;
+    const dy = ty - fy;
     const dz = p.z1 - p.z0;
     const l = Math.sqrt(dx * dx + dy * dy + dz * dz) || 1;
     dir[i * 3] = dx / l;
     dir[i * 3 + 1] = dy / l;
     dir[i * 3 + 2] = dz / l;
   }
-  // Cells at least 4 × TOL wide (so touching ends are in neighbouring cells), and few enough that the
-  // key stays a small integer (below 2^28, so an int32).
-  const size = Math.max(4 * TOL, maxAbs / 4000);
-  const key = (cx: number, cy: number) => (cx + 8192) * 16384 + (cy + 8192);
-  // Pieces from last to first: each is matched against the later pieces already in the hash (every pair
-  // once), then its own ends go in.
+  // Square cells at least 25 × TOL wide, and few enough that the key (cx + 8192) × 16384 + (cy + 8192) stays
+  // a small integer (|cx|, |cy| ≤ 4001, so below 2^28: an int32). An end within TOL of another is then in the
+  // same cell or, when it is within `near` (in cell widths) of a side, possibly in the cell beyond that side:
+  // any point of that cell is at least `near` cell widths, 1.2 × TOL, away. Wide cells make that rare (a
+  // corner lies in one cell, seldom two), and the ends of a cell are far fewer than the cell lookups saved.
+  // The cells only choose which pairs are compared (every pair within TOL is); the runs do not depend on them.
+  const size = Math.max(25 * TOL, maxAbs / 4000);
+  const near = (1.2 * TOL) / size;
+  const far = 1 - near;
+  // Pieces from last to first: each end is matched against the ends already in the hash, then goes in
+  // itself (so every pair of pieces meets once, the later piece's ends being in; a piece's first end is in
+  // when its second is matched, hence the j === i skip).
   for (let i = n - 1; i >= 0; i--) {
     const ti = type[i];
     const ax = dir[i * 3], ay = dir[i * 3 + 1], az = dir[i * 3 + 2];
@@ -742,20 +819,19 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
       const gy = qy / size;
       const cx = Math.floor(gx);
       const cy = Math.floor(gy);
-      // A touching end is at most TOL ≤ a quarter cell away: a neighbouring cell only near that side.
       const fx = gx - cx;
       const fy = gy - cy;
-      const ox0 = fx < 0.3 ? -1 : 0;
-      const ox1 = fx > 0.7 ? 1 : 0;
-      const oy0 = fy < 0.3 ? -1 : 0;
-      const oy1 = fy > 0.7 ? 1 : 0;
+      const ox0 = fx < near ? -1 : 0;
+      const ox1 = fx > far ? 1 : 0;
+      const oy0 = fy < near ? -1 : 0;
+      const oy1 = fy > far ? 1 : 0;
       for (let ox = ox0; ox <= ox1; ox++)
         for (let oy = oy0; oy <= oy1; oy++) {
-          const s = S.slot(key(cx + ox, cy + oy));
+          const s = S.slot((cx + ox + 8192) * 16384 + (cy + oy + 8192));
           if (cellKey[s] === -1) continue;
           for (let end = cellHead[s]; end !== -1; end = nextEnd[end]) {
             const j = end >> 1;
-            if (type[j] !== ti) continue;
+            if (j === i || type[j] !== ti) continue;
             // (Code 8 is any name outside EdgeType, which the input schema rules out: compare the names.)
             if (ti === 8 && pieces[j].type !== pieces[i].type) continue;
             const f0 = ends[j * 4] - qx, f1 = ends[j * 4 + 1] - qy, t0 = ends[j * 4 + 2] - qx, t1 = ends[j * 4 + 3] - qy;
@@ -764,12 +840,11 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
             const bx = dir[j * 3], by = dir[j * 3 + 1], bz = dir[j * 3 + 2];
             const c1 = ay * bz - az * by, c2 = az * bx - ax * bz, c3 = ax * by - ay * bx;
             const c = Math.sqrt(c1 * c1 + c2 * c2 + c3 * c3);
-            if (c <= 1e-3) parent[find(i)] = find(j);
+            if (c <= 1e-3) parent[findRoot(parent, i)] = findRoot(parent, j);
           }
         }
-    }
-    for (let e = 0; e < 2; e++) {
-      const k = key(Math.floor(ends[i * 4 + e * 2] / size), Math.floor(ends[i * 4 + e * 2 + 1] / size));
+      // This end into its own cell.
+      const k = (cx + 8192) * 16384 + (cy + 8192);
       const s = S.slot(k);
       const end = i * 2 + e;
       if (cellKey[s] === -1) {
@@ -785,7 +860,7 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
   for (let i = 0; i < n; i++) groupOfRoot[i] = -1;
   let nGroups = 0;
   for (let i = 0; i < n; i++) {
-    const r = find(i);
+    const r = findRoot(parent, i);
     let g = groupOfRoot[r];
     if (g === -1) {
       g = groupOfRoot[r] = nGroups++;
@@ -805,6 +880,15 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
   for (let g = 0; g < nGroups; g++) {
     const end = groupStart[g];
     const start = end - groupSize[g];
+    const p0 = grouped[start];
+    if (end - start === 1) {
+      // A run of one piece (most runs): its lists as literals, the same arrays slice() makes below (packed,
+      // exactly as long as their contents), without the calls.
+      const other = p0.partner;
+      const planeIds = other && other.planeId !== p0.planeId ? [p0.planeId, other.planeId] : [p0.planeId];
+      putItem(runs, g, { type: p0.type, lengthFt: 0 + p0.trueLengthFt, planLengthFt: 0 + p0.planLengthFt, planeIds, pieces: [p0] });
+      continue;
+    }
     let nIds = 0;
     let len = 0;
     let plan = 0;
@@ -815,9 +899,18 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
       len += p.trueLengthFt;
       plan += p.planLengthFt;
     }
-    put(runs, g, { type: grouped[start].type, lengthFt: len, planLengthFt: plan, planeIds: ids.slice(0, nIds), pieces: grouped.slice(start, end) });
+    putItem(runs, g, { type: p0.type, lengthFt: len, planLengthFt: plan, planeIds: ids.slice(0, nIds), pieces: grouped.slice(start, end) });
   }
   return runs.slice(0, nGroups);
+}
+
+/** Root of piece i's set (union-find with path halving). */
+function findRoot(parent: Int32Array, i: number): number {
+  while (parent[i] !== i) {
+    parent[i] = parent[parent[i]];
+    i = parent[i];
+  }
+  return i;
 }
 
 /**
@@ -826,7 +919,7 @@ export function buildRuns(byPlane: EdgePiece[][]): EdgeRun[] {
  */
 function addId(ids: string[], nIds: number, id: string): number {
   for (let i = 0; i < nIds; i++) if (ids[i] === id) return nIds;
-  put(ids, nIds, id);
+  putItem(ids, nIds, id);
   return nIds + 1;
 }
 

@@ -11,7 +11,6 @@
  * eave line).
  */
 import { TOL } from "../constants";
-import { put } from "../scratch-list";
 import type { Pt } from "./polygon";
 import { selfIntersection, signedArea } from "./polygon";
 import { slopeFactor } from "./slope";
@@ -157,7 +156,8 @@ const NO_AREA = "The outline has no area (its corners are on one line)";
  * The scratch lists planeGeometry fills and copies out at their exact length (see ../scratch-list; the heights
  * stay doubles stored unboxed). planeGeometry calls nothing that could call it again, so one set is enough.
  * Entries past the current plane's are left from earlier planes (they only keep those small objects alive
- * until overwritten).
+ * until overwritten). Each is filled in place (store, or push at the end) at its own store site, which sees
+ * one kind of list.
  */
 const scratchPts: Pt[] = [];
 const scratchLocal: Pt[] = [];
@@ -172,7 +172,11 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
   const src = plane.outline;
   const n = src.length;
   const pts = scratchPts;
-  for (let i = 0; i < n; i++) put(pts, i, [src[i][0], src[i][1]] as Pt);
+  for (let i = 0; i < n; i++) {
+    const c: Pt = [src[i][0], src[i][1]];
+    if (i < pts.length) pts[i] = c;
+    else pts.push(c);
+  }
   if (n < 3) return fail("A roof plane needs at least 3 corners", ["planes", index, "outline"]);
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(pts[i][0]) || !Number.isFinite(pts[i][1])) {
@@ -225,8 +229,12 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
       return fail(`Corner ${i} is below the eave line (${(-v).toFixed(2)} ft on the outside of the eave)`, ["planes", index, "outline", i]);
     }
     const s = dx * rx + dy * ry;
-    put(loc, i, [s, v] as Pt);
-    put(hs, i, baseElevationFt + (v * pitch) / 12);
+    const sv: Pt = [s, v];
+    const z = baseElevationFt + (v * pitch) / 12;
+    if (i < loc.length) loc[i] = sv;
+    else loc.push(sv);
+    if (i < hs.length) hs[i] = z;
+    else hs.push(z);
     sMin = Math.min(sMin, s);
     sMax = Math.max(sMax, s);
     vMax = Math.max(vMax, v);
@@ -239,7 +247,9 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
     const plan = hypot2(q[0] - p[0], q[1] - p[1]);
     const z0 = hs[i];
     const z1 = hs[j];
-    put(eds, i, { index: i, from: p, to: q, planLengthFt: plan, trueLengthFt: hypot2(plan, z1 - z0), z0, z1 });
+    const ed: PlaneEdgeGeometry = { index: i, from: p, to: q, planLengthFt: plan, trueLengthFt: hypot2(plan, z1 - z0), z0, z1 };
+    if (i < eds.length) eds[i] = ed;
+    else eds.push(ed);
   }
   const planAreaSqFt = Math.abs(area);
   const slopedAreaSqFt = planAreaSqFt * k;
