@@ -18,7 +18,7 @@
 import type { PlaneGeometry } from "../roof/geometry";
 import type { EdgePiece } from "../roof/edges";
 import type { PanelLayout } from "../roof/panels";
-import { sortPrefix, type Pt } from "../roof/polygon";
+import type { Pt } from "../roof/polygon";
 
 export type WindZone = "1'" | "1" | "2" | "3";
 export const WIND_ZONES: readonly WindZone[] = ["1'", "1", "2", "3"];
@@ -165,14 +165,16 @@ function prepare(roof: RoofEdges, dx: number, dy: number): Float64Array {
 function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Float64Array, o: number, r: number, out: Float64Array, i: number): boolean {
   // Fast case: the line crosses the band |w| ≤ r well inside the edge's ends. Then the answer is the
   // band slab alone, bit for bit, and the end disks and the u slab need not be worked out. Why: let P be
-  // where the line meets w = ±r (the band slab's ends ta, tb) and m = 0.49·r. If m ≤ u ≤ L − m at both P
+  // where the line meets w = ±r (the band slab's ends ta, tb) and m = 0.2·r. If m ≤ u ≤ L − m at both P
   // (u is linear along the line, so between them too), then
   //  - the u slab's ends lie at least m / |du| ≥ m beyond ta and tb along the line (t is arc length);
   //  - a point Q of the line in an end disk is inside the band, so between the two P; and where the line
-  //    meets the disk's circle (|Q − end| = r) it is at least |P − end| − r ≥ √(m² + r²) − r ≈ 0.11·r
+  //    meets the disk's circle (|Q − end| = r) it is at least |P − end| − r ≥ √(m² + r²) − r ≈ 0.0198·r
   //    from either P, as |P − end| ≥ √(m² + r²).
   // So the original min/max over the disks and slabs picks ta and tb unless rounding moves a value by
-  // about 0.11·r. The guards keep every rounding far smaller: |dw| ≥ 0.01 (the line is not nearly
+  // about 0.02·r. The guards keep every rounding far smaller (≤ 3e-4·r, over 60 times less; m was 0.49·r,
+  // a margin of 0.11·r, until clip lines 1.3 ft from an edge's end, common at 16 in panels and a = 3 ft,
+  // were seen to take the full path needlessly): |dw| ≥ 0.01 (the line is not nearly
   // parallel to the edge, so ta and tb carry a relative error of a few 1e-16 over 0.01), and
   // r ≥ 1e-4 · (|u0| + |w0| + L), which bounds the distance from p to either end by 1e4·r; the worst
   // rounding is in a near-tangent disk, √(a few ε) ≈ 3e-8 of that distance, i.e. ≤ 3e-4·r.
@@ -197,7 +199,7 @@ function intervalPrepared(px: number, py: number, dx: number, dy: number, v: Flo
       const du = v[o + 7];
       const ua = u0 + du * ta;
       const ub = u0 + du * tb;
-      const m = 0.49 * r;
+      const m = 0.2 * r;
       if (ua >= m && ua <= L0 - m && ub >= m && ub <= L0 - m) {
         out[i] = ta;
         out[i + 1] = tb;
@@ -458,6 +460,22 @@ function pushSegment(segZone: Int8Array, segLen: Float64Array, ns: number, zone:
   return ns + 1;
 }
 
+/**
+ * Sorts a[1..n) ascending by insertion (the cuts of one line: a handful, often already in order). a[0] is
+ * the cut 0, below every other, so it stops the inner loop without a bounds test.
+ */
+function sortBetween(a: Float64Array, n: number): void {
+  for (let i = 2; i < n; i++) {
+    const x = a[i];
+    let j = i - 1;
+    while (a[j] > x) {
+      a[j + 1] = a[j];
+      j--;
+    }
+    a[j + 1] = x;
+  }
+}
+
 /** Grows the scratch buffers for a roof (once per roof, so the per-line code need not check). */
 function ensureScratch(roof: FlatRoof): void {
   const ne = roof.ne;
@@ -510,9 +528,10 @@ function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel)
   const reach = REACH;
   const segZone = SEG_ZONE;
   const segLen = SEG_LEN;
-  let nc = 0;
-  cuts[nc++] = 0;
-  cuts[nc++] = len;
+  // The cut 0 goes first and len last (below): every other cut lies strictly between them, so only those
+  // need sorting (sortBetween), and the sorted list is the same.
+  cuts[0] = 0;
+  let nc = 1;
   // reach[0..nr) lists (by IV offset) the intervals that meet the open segment (0, len): only those can
   // hold a piece's midpoint, which lies strictly inside it (pieces are longer than 1e-9).
   let nr = 0;
@@ -537,10 +556,13 @@ function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel)
     if (hi > 0 && hi < len) cuts[nc++] = hi;
     if (lo < len && hi > 0) reach[nr++] = o;
   }
-  sortPrefix(cuts, nc);
+  sortBetween(cuts, nc);
+  cuts[nc++] = len;
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
+  // (A corner also needs both its intervals to meet (0, len), where the midpoints are: with fewer than two
+  // such intervals no corner can, and the list stays empty.)
   let na = 0;
-  if (!zone3AsZone2) {
+  if (!zone3AsZone2 && nr >= 2) {
     const corners = roof.corners;
     for (let q = 0; q < roof.nq; q++) {
       const i = corners[2 * q] * 2;
@@ -601,9 +623,10 @@ function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneMod
   const active = ACTIVE_CORNERS;
   const segZone = SEG_ZONE;
   const segLen = SEG_LEN;
-  let nc = 0;
-  cuts[nc++] = 0;
-  cuts[nc++] = len;
+  // The cut 0 goes first and len last (below): every other cut lies strictly between them, so only those
+  // need sorting (sortBetween), and the sorted list is the same.
+  cuts[0] = 0;
+  let nc = 1;
   const rMax = Math.max(r1, r2, r3);
   const across = px * dy - py * dx; // the line's position across its direction
   for (let e = 0; e < ne; e++) {
@@ -634,7 +657,8 @@ function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneMod
       if (iv[ok + 1] > 0 && iv[ok + 1] < len) cuts[nc++] = iv[ok + 1];
     }
   }
-  sortPrefix(cuts, nc);
+  sortBetween(cuts, nc);
+  cuts[nc++] = len;
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   const corners = roof.corners;
   let na = 0;
@@ -729,31 +753,60 @@ const Z_CLIPS = new Float64Array(4);
 const Z_LINE = new Float64Array(4);
 const Z_AREA = new Float64Array(4);
 const Z_SCREWS = new Float64Array(4);
-const EXACT = new Float64Array(4);
 const SPACING_OF = new Float64Array(4);
 const SCREWS_OF = new Float64Array(4);
 
-/** Share c clips of one run (segments i0..i1) among its zones in proportion to length (largest remainder). */
+/**
+ * Share c clips of one run (segments i0..i1) among its zones in proportion to length (largest remainder):
+ * each zone gets the whole part of its exact share c · length / total (with 1e-9 of slack), and the clips
+ * left over go one each to the largest remainders (the lowest zone code first on a tie). The four exact
+ * shares are kept in locals e0..e3 (registers, not a scratch array), summed in segment order as before.
+ */
 function distribute(c: number, i0: number, i1: number, total: number, segZone: Int8Array, segLen: Float64Array, clipsByZone: Float64Array) {
   if (c === 0 || !(total > 0)) return;
-  const exact = EXACT;
-  exact[0] = 0;
-  exact[1] = 0;
-  exact[2] = 0;
-  exact[3] = 0;
-  for (let i = i0; i <= i1; i++) exact[segZone[i]] += (c * segLen[i]) / total;
-  let given = 0;
-  for (let z = 0; z < 4; z++) {
-    const f = Math.floor(exact[z] + 1e-9);
-    clipsByZone[z] += f;
-    given += f;
-    exact[z] -= f;
+  let e0 = 0;
+  let e1 = 0;
+  let e2 = 0;
+  let e3 = 0;
+  for (let i = i0; i <= i1; i++) {
+    const x = (c * segLen[i]) / total;
+    const z = segZone[i];
+    if (z === 2) e2 += x;
+    else if (z === 1) e1 += x;
+    else if (z === 3) e3 += x;
+    else e0 += x;
   }
+  const f0 = Math.floor(e0 + 1e-9);
+  const f1 = Math.floor(e1 + 1e-9);
+  const f2 = Math.floor(e2 + 1e-9);
+  const f3 = Math.floor(e3 + 1e-9);
+  clipsByZone[0] += f0;
+  clipsByZone[1] += f1;
+  clipsByZone[2] += f2;
+  clipsByZone[3] += f3;
+  let given = f0 + f1 + f2 + f3;
+  e0 -= f0;
+  e1 -= f1;
+  e2 -= f2;
+  e3 -= f3;
   while (given < c) {
+    // The largest remainder, the first in zone order on a tie; a zone served is set to −1.
     let best = 0;
-    for (let z = 1; z < 4; z++) if (exact[z] > exact[best]) best = z;
+    let bv = e0;
+    if (e1 > bv) {
+      best = 1;
+      bv = e1;
+    }
+    if (e2 > bv) {
+      best = 2;
+      bv = e2;
+    }
+    if (e3 > bv) best = 3;
     clipsByZone[best] += 1;
-    exact[best] = -1;
+    if (best === 0) e0 = -1;
+    else if (best === 1) e1 = -1;
+    else if (best === 2) e2 = -1;
+    else e3 = -1;
     given++;
   }
 }
@@ -761,6 +814,18 @@ function distribute(c: number, i0: number, i1: number, total: number, segZone: I
 /** Whether battens spaced battenSpacingIn force a clip spacing wider than the askedIn. */
 function limitedByBattens(askedIn: number, battenSpacingIn: number | null): boolean {
   return battenSpacingIn !== null && battenSpacingIn > 0 && askedIn < battenSpacingIn - 1e-9;
+}
+
+/** The n zones whose codes are packed 2 bits each in order (see planeFasteners), as a new array of n. */
+function limitedList(order: number, n: number): WindZone[] {
+  const z = ZONE_BY_CODE;
+  const a = z[order & 3];
+  if (n === 1) return [a];
+  const b = z[(order >> 2) & 3];
+  if (n === 2) return [a, b];
+  const c = z[(order >> 4) & 3];
+  if (n === 3) return [a, b, c];
+  return [a, b, c, z[(order >> 6) & 3]];
 }
 
 /** The tallies of zone code z (see Z_CLIPS) as a ZoneCounts. */
@@ -847,7 +912,10 @@ export function planeFasteners(
   screwsOf[1] = opts.screwsPerSquare.field;
   screwsOf[2] = opts.screwsPerSquare.edge;
   screwsOf[3] = opts.screwsPerSquare.corner;
-  let limited: WindZone[] | null = null; // made when a first zone is listed
+  // The zone codes listed so far, 2 bits each in the order met (nLimited of them): the list is made once,
+  // at the end, at its final size (an array grown by push reserves room for 17 entries).
+  let limitedOrder = 0;
+  let nLimited = 0;
   let limitedNew = 0;
   if (limitedByBattens(opts.clipSpacingIn.field, bs)) limitedNew |= 0b0011;
   if (limitedByBattens(opts.clipSpacingIn.edge, bs)) limitedNew |= 0b0100;
@@ -888,8 +956,8 @@ export function planeFasteners(
         const z = segZone[i];
         if (limitedNew & (1 << z)) {
           limitedNew &= ~(1 << z);
-          if (limited === null) limited = [ZONE_BY_CODE[z]];
-          else limited.push(ZONE_BY_CODE[z]);
+          limitedOrder |= z << (2 * nLimited);
+          nLimited++;
         }
         const sl = segLen[i];
         Z_LINE[z] += sl * k;
@@ -933,7 +1001,7 @@ export function planeFasteners(
     setZoneTally(TOTALS_ZONES["1"], 1);
     setZoneTally(TOTALS_ZONES["2"], 2);
     setZoneTally(TOTALS_ZONES["3"], 3);
-    t.spacingLimitedByBattens = limited ?? NONE_LIMITED;
+    t.spacingLimitedByBattens = nLimited ? limitedList(limitedOrder, nLimited) : NONE_LIMITED;
     return t;
   }
   const spacing: ZoneSpacing = { field: spacingOf[0], edge: spacingOf[2], corner: spacingOf[3] };
@@ -960,6 +1028,6 @@ export function planeFasteners(
     clips,
     clipsPerPanel,
     panelScrews,
-    spacingLimitedByBattens: limited ?? [],
+    spacingLimitedByBattens: nLimited ? limitedList(limitedOrder, nLimited) : [],
   };
 }
