@@ -151,7 +151,18 @@ function unique<T>(xs: readonly T[]): T[] {
 /** Materials are listed in the order of MATERIAL_KEYS. */
 const MATERIAL_RANK = Object.fromEntries(Object.keys(MATERIAL_KEYS).map((k, i) => [k, i])) as Record<MaterialKey, number>;
 
-const zeroZone = (): ZoneFasteners => ({ clips: 0, clipScrews: 0, panelScrews: 0, lineFt: 0, areaSqFt: 0 });
+/**
+ * Sums that take whole counts from one detail and doubles from the other (planeFasteners' "totals" record holds
+ * doubles, the full record small integers) start as a double, NaN, and are then set to 0: their fields hold
+ * doubles from the start, so the sums keep one hidden class whichever detail ran. Started as the small integer
+ * 0, they changed class after the first takeoff of the other detail, and V8 then deoptimised the takeoff on
+ * every run where both details were asked for (as in a server answering both).
+ */
+function zeroZone(): ZoneFasteners {
+  const z: ZoneFasteners = { clips: NaN, clipScrews: NaN, panelScrews: NaN, lineFt: NaN, areaSqFt: NaN };
+  z.clips = z.clipScrews = z.panelScrews = z.lineFt = z.areaSqFt = 0;
+  return z;
+}
 
 function underlaymentKey(stack: StackInput): MaterialKey {
   const u = stack.underlayment;
@@ -279,36 +290,40 @@ interface JobSums {
   lowSlopeWithoutHeight: string[];
 }
 
-const newJobSums = (planeCount: number): JobSums => ({
-  longestByPlane: new Float64Array(planeCount),
-  slopedAreaSqFt: 0,
-  squares: 0,
-  panelCount: 0,
-  panelLengthFt: 0,
-  offcutSqFt: 0,
-  zones: { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() },
-  clips: 0,
-  clipScrews: 0,
-  panelScrewsExact: 0,
-  spacerFasteners: 0,
-  underl: new Map(),
-  iceMembraneLf: 0,
-  icePlanes: [],
-  planesWithoutIce: [],
-  meshArea: 0,
-  dimpledArea: 0,
-  foilArea: 0,
-  deckArea: 0,
-  battenLf: new Map(),
-  counterLf: new Map(),
-  panelLf: new Map(),
-  closureEave: 0,
-  closureRidge: 0,
-  closureVented: 0,
-  clipLimited: [],
-  penetrations: [],
-  lowSlopeWithoutHeight: [],
-});
+function newJobSums(planeCount: number): JobSums {
+  const sums: JobSums = {
+    longestByPlane: new Float64Array(planeCount),
+    slopedAreaSqFt: 0,
+    squares: 0,
+    panelCount: 0,
+    panelLengthFt: 0,
+    offcutSqFt: 0,
+    zones: { "1'": zeroZone(), "1": zeroZone(), "2": zeroZone(), "3": zeroZone() },
+    clips: NaN, // doubles from the start (see zeroZone), set to 0 below
+    clipScrews: NaN,
+    panelScrewsExact: NaN,
+    spacerFasteners: 0,
+    underl: new Map(),
+    iceMembraneLf: 0,
+    icePlanes: [],
+    planesWithoutIce: [],
+    meshArea: 0,
+    dimpledArea: 0,
+    foilArea: 0,
+    deckArea: 0,
+    battenLf: new Map(),
+    counterLf: new Map(),
+    panelLf: new Map(),
+    closureEave: 0,
+    closureRidge: 0,
+    closureVented: 0,
+    clipLimited: [],
+    penetrations: [],
+    lowSlopeWithoutHeight: [],
+  };
+  sums.clips = sums.clipScrews = sums.panelScrewsExact = 0;
+  return sums;
+}
 
 /** The clip spacing and screw rates of one assembly: the stack's own values, else the job's rules. */
 interface FastenerRates {
