@@ -11,7 +11,7 @@ import type { CutListEntry } from "./roof/panels";
 import type { ChannelResult } from "./ventilation/channel";
 import type { VentilationResult } from "./ventilation/index";
 import type { ThermalResult } from "./thermal/index";
-import type { PlaneWindZones, WindZone } from "./wind/zones";
+import type { EdgeDistanceTerm, PlaneWindZones, WindZone } from "./wind/zones";
 
 export type { EdgeType, EdgeTotals, MaterialLine, Advisory, CutListEntry, WindZone };
 
@@ -120,7 +120,7 @@ export interface WindResult {
   leastHorizontalDimensionFt: number;
   leastHorizontalDimensionEstimated: boolean;
   meanRoofHeightFt: number | null;
-  governs: string;
+  governs: EdgeDistanceTerm;
   hipRoof: boolean;
   basicWindSpeedMph: number | null;
   exposure: "B" | "C" | "D" | null;

@@ -14,7 +14,7 @@ import { SEVERITIES } from "../engine/advisory";
 import { SPACER_OPTIONS } from "../engine/stack-options";
 import { MATERIAL_CATEGORIES, MATERIAL_KEYS, type MaterialKey } from "../engine/materials";
 import { EDGE_TYPES } from "../engine/roof/edge-types";
-import { WIND_ZONES } from "../engine/wind/zones";
+import { EDGE_DISTANCE_TERMS, WIND_ZONES } from "../engine/wind/zones";
 import { LUMBER_NOMINALS, PANEL_SYSTEMS, SPACER_KINDS } from "./takeoff";
 
 /** Whether the assembly still matches a tested uplift assembly (asked for with site.wind.ratedAssemblyRequired). */
@@ -259,7 +259,7 @@ export const windSchema = z.strictObject({
   leastHorizontalDimensionEstimated: z.boolean(),
   meanRoofHeightFt: z.number().nullable(),
   /** The term that sets a: "0.1L", "0.4h", "0.04L" or "3 ft". */
-  governs: z.string(),
+  governs: z.enum(EDGE_DISTANCE_TERMS),
   hipRoof: z.boolean(),
   basicWindSpeedMph: z.number().nullable(),
   exposure: z.enum(WIND_EXPOSURES).nullable(),

@@ -29,12 +29,16 @@ export const HIP_ZONE3_MAX_PITCH = 12 * Math.tan((25 * Math.PI) / 180);
 /** Above 45° (12/12) the figures do not apply. */
 export const WIND_FIGURES_MAX_PITCH = 12;
 
+/** The term of ASCE 7's edge distance that governs: 10 % of the least dimension, 40 % of the height, or a floor. */
+export const EDGE_DISTANCE_TERMS = ["0.1L", "0.4h", "0.04L", "3 ft"] as const;
+export type EdgeDistanceTerm = (typeof EDGE_DISTANCE_TERMS)[number];
+
 export interface EdgeDistance {
   aFt: number;
   leastHorizontalDimensionFt: number;
   meanRoofHeightFt: number | null;
-  /** Which term governs: "0.1L", "0.4h", "0.04L", "3 ft". */
-  governs: string;
+  /** Which term governs. */
+  governs: EdgeDistanceTerm;
   heightMissing: boolean;
 }
 
@@ -46,7 +50,7 @@ export function edgeDistance(leastHorizontalDimensionFt: number, meanRoofHeightF
     const a = Math.max(0.1 * L, 3);
     return { aFt: a, leastHorizontalDimensionFt: L, meanRoofHeightFt: null, governs: a === 3 ? "3 ft" : "0.1L", heightMissing: true };
   }
-  const cands: [number, string][] = [[0.1 * L, "0.1L"], [0.4 * h, "0.4h"]];
+  const cands: [number, EdgeDistanceTerm][] = [[0.1 * L, "0.1L"], [0.4 * h, "0.4h"]];
   let [a, governs] = cands[0][0] <= cands[1][0] ? cands[0] : cands[1];
   const floor = Math.max(0.04 * L, 3);
   if (a < floor) {
