@@ -351,14 +351,8 @@ export const ventilationSchema = z.strictObject({
   /** Intake provided is at least the exhaust provided. */
   balanced: z.boolean(),
   codeEdition: z.string(),
-  aboveDeck: z.strictObject({
-    gapIn: z.number(),
-    continuous: z.boolean(),
-    qualifies: z.boolean(),
-    channelNfaPerFtSqIn: z.number(),
-    channelHeightIn: z.number(),
-    reasons: z.array(z.string()),
-  }),
+  /** The dominant assembly's channel, as far as ventilation goes. */
+  aboveDeck: channelSchema.pick({ gapIn: true, continuous: true, qualifies: true, channelNfaPerFtSqIn: true, channelHeightIn: true, reasons: true }),
 });
 
 /** One roof assembly over its planes. */

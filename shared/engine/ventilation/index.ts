@@ -63,14 +63,7 @@ export interface VentilationResult {
   /** Intake provided is at least the exhaust provided. */
   balanced: boolean;
   codeEdition: string;
-  aboveDeck: {
-    gapIn: number;
-    continuous: boolean;
-    qualifies: boolean;
-    channelNfaPerFtSqIn: number;
-    channelHeightIn: number;
-    reasons: string[];
-  };
+  aboveDeck: Pick<ChannelResult, "gapIn" | "continuous" | "qualifies" | "channelNfaPerFtSqIn" | "channelHeightIn" | "reasons">;
 }
 
 /** Ridge vent stops 1 ft short of each end of a ridge (common practice). */
