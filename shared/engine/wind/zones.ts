@@ -18,7 +18,7 @@
 import type { PlaneGeometry } from "../roof/geometry";
 import type { EdgePiece } from "../roof/edges";
 import type { PanelLayout } from "../roof/panels";
-import type { Pt } from "../roof/polygon";
+import { sortPrefix, type Pt } from "../roof/polygon";
 
 export type WindZone = "1'" | "1" | "2" | "3";
 export const WIND_ZONES: readonly WindZone[] = ["1'", "1", "2", "3"];
@@ -464,22 +464,6 @@ function pushSegment(segZone: Int8Array, segLen: Float64Array, ns: number, zone:
   return ns + 1;
 }
 
-/**
- * Sorts a[1..n) ascending by insertion (the cuts of one line: a handful, often already in order). a[0] is
- * the cut 0, below every other, so it stops the inner loop without a bounds test.
- */
-function sortBetween(a: Float64Array, n: number): void {
-  for (let i = 2; i < n; i++) {
-    const x = a[i];
-    let j = i - 1;
-    while (a[j] > x) {
-      a[j + 1] = a[j];
-      j--;
-    }
-    a[j + 1] = x;
-  }
-}
-
 /** Grows the scratch buffers for a roof (once per roof, so the per-line code need not check). */
 function ensureScratch(roof: FlatRoof): void {
   const ne = roof.ne;
@@ -532,8 +516,8 @@ function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel)
   const reach = REACH;
   const segZone = SEG_ZONE;
   const segLen = SEG_LEN;
-  // The cut 0 goes first and len last (below): every other cut lies strictly between them, so only those
-  // need sorting (sortBetween), and the sorted list is the same.
+  // The cut 0 goes first and len last (after the sort): every other cut lies strictly between them, so len
+  // need not be sorted in, and the sorted list is the same.
   cuts[0] = 0;
   let nc = 1;
   // reach[0..nr) lists (by IV offset) the intervals that meet the open segment (0, len): only those can
@@ -560,7 +544,7 @@ function steepSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneModel)
     if (hi > 0 && hi < len) cuts[nc++] = hi;
     if (lo < len && hi > 0) reach[nr++] = o;
   }
-  sortBetween(cuts, nc);
+  sortPrefix(cuts, nc);
   cuts[nc++] = len;
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   // (A corner also needs both its intervals to meet (0, len), where the midpoints are: with fewer than two
@@ -627,8 +611,8 @@ function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneMod
   const active = ACTIVE_CORNERS;
   const segZone = SEG_ZONE;
   const segLen = SEG_LEN;
-  // The cut 0 goes first and len last (below): every other cut lies strictly between them, so only those
-  // need sorting (sortBetween), and the sorted list is the same.
+  // The cut 0 goes first and len last (after the sort): every other cut lies strictly between them, so len
+  // need not be sorted in, and the sorted list is the same.
   cuts[0] = 0;
   let nc = 1;
   const rMax = Math.max(r1, r2, r3);
@@ -661,7 +645,7 @@ function lowSlopeSegmentsInto(line: Float64Array, roof: FlatRoof, model: ZoneMod
       if (iv[ok + 1] > 0 && iv[ok + 1] < len) cuts[nc++] = iv[ok + 1];
     }
   }
-  sortBetween(cuts, nc);
+  sortPrefix(cuts, nc);
   cuts[nc++] = len;
   // Only corners whose two edges both come within reach of this line can put any of it in zone 3.
   const corners = roof.corners;
