@@ -62,13 +62,6 @@ export interface PlaneGeometry {
 
 export type GeometryError = { ok: false; reason: string; path: (string | number)[] };
 
-/** Local (s, v) coordinates of a plan point. */
-export function toLocal(g: Pick<PlaneGeometry, "origin" | "up" | "right">, p: Pt): Pt {
-  const dx = p[0] - g.origin[0];
-  const dy = p[1] - g.origin[1];
-  return [dx * g.right[0] + dy * g.right[1], dx * g.up[0] + dy * g.up[1]];
-}
-
 /** Plan point of local (s, v) coordinates. */
 export function toPlan(g: Pick<PlaneGeometry, "origin" | "up" | "right">, s: number, v: number): Pt {
   return [g.origin[0] + s * g.right[0] + v * g.up[0], g.origin[1] + s * g.right[1] + v * g.up[1]];
@@ -213,7 +206,7 @@ export function planeGeometry(plane: PlaneShapeInput, index: number): PlaneGeome
   const up: Pt = winding === "ccw" ? [-d1, d0] : [d1, -d0];
   // Right of someone at the eave looking up-slope: `up` turned a quarter turn clockwise.
   const right: Pt = [up[1], -up[0]];
-  // Local (s, v) of each corner (as toLocal), rejecting corners below the eave line; the corner's height,
+  // Local (s, v) of each corner (s along `right`, v along `up`, from the eave corner `a`), rejecting corners below the eave line; the corner's height,
   // and the extent of the plane in the local frame.
   const ox = a[0], oy = a[1], ux = up[0], uy = up[1], rx = right[0], ry = right[1];
   const k = slopeFactorOf(pitch);
@@ -309,11 +302,3 @@ function allCollinear(pts: Pt[]): boolean {
 }
 
 export const isGeometryError = (g: PlaneGeometry | GeometryError): g is GeometryError => (g as GeometryError).ok === false;
-
-/** Inward unit normal (plan) of edge i of a plane. */
-export function inwardNormal(g: Pick<PlaneGeometry, "winding">, from: Pt, to: Pt): Pt {
-  const len = Math.hypot(to[0] - from[0], to[1] - from[1]) || 1;
-  const dx = (to[0] - from[0]) / len;
-  const dy = (to[1] - from[1]) / len;
-  return g.winding === "ccw" ? [-dy, dx] : [dy, -dx];
-}

@@ -2,7 +2,6 @@
  * Plane-polygon helpers: shoelace area, winding, simple-polygon test, point-in-polygon, and the
  * slicing used for panels, battens and clip lines. Points are [x, y] in feet (see ../units.ts).
  */
-import type { PlanPoint } from "../units";
 
 export type Pt = readonly [number, number];
 
@@ -157,18 +156,6 @@ export function pointInPolygon(p: Pt, poly: readonly Pt[]): boolean {
     }
   }
   return inside;
-}
-
-/** Axis-aligned bounding box [minX, minY, maxX, maxY]. */
-export function bbox(poly: readonly Pt[]): [number, number, number, number] {
-  let x0 = Infinity, y0 = Infinity, x1 = -Infinity, y1 = -Infinity;
-  for (const [x, y] of poly) {
-    if (x < x0) x0 = x;
-    if (y < y0) y0 = y;
-    if (x > x1) x1 = x;
-    if (y > y1) y1 = y;
-  }
-  return [x0, y0, x1, y1];
 }
 
 /** One connected piece of a polygon clipped to a strip a ≤ s ≤ b. */
@@ -773,5 +760,3 @@ export function stripComponents(poly: readonly Pt[], a: number, b: number, conve
   return out;
 }
 
-/** Bounding box of plan points as [minX, minY, maxX, maxY]: alias kept for PlanPoint callers. */
-export const planBbox = (pts: readonly PlanPoint[]) => bbox(pts);
