@@ -15,12 +15,10 @@ import { SPACER_OPTIONS } from "../engine/stack-options";
 import { MATERIAL_CATEGORIES, MATERIAL_KEYS, type MaterialKey } from "../engine/materials";
 import { EDGE_TYPES } from "../engine/roof/edge-types";
 import { EDGE_DISTANCE_TERMS, WIND_ZONES } from "../engine/wind/zones";
-import { LUMBER_NOMINALS, PANEL_SYSTEMS, SPACER_KINDS } from "./takeoff";
+import { LUMBER_NOMINALS, PANEL_SYSTEMS, SPACER_KINDS, WIND_EXPOSURES } from "./takeoff";
 
 /** Whether the assembly still matches a tested uplift assembly (asked for with site.wind.ratedAssemblyRequired). */
 export const UPLIFT_ASSEMBLY_STATES = ["tested", "not-tested-needs-review", "not-required"] as const;
-/** Wind exposure categories B, C, D (ASCE 7 26.7.3). */
-export const WIND_EXPOSURES = ["B", "C", "D"] as const;
 /** How the space under the deck is ventilated: a vented attic, an unvented attic, a vented cathedral ceiling. */
 export const VENTILATION_MODES = ["attic", "unvented", "cathedral"] as const;
 /** Wind-zone layout of a plane: the steep-slope figure, or the low-slope one (pitch up to 7°). */

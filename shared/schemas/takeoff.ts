@@ -36,6 +36,8 @@ export const PANEL_SYSTEMS = ["standing-seam", "exposed-fastener"] as const;
 export const PANEL_STARTS = ["left", "right", "centred"] as const;
 export const PENETRATION_KINDS = ["pipe", "chimney", "skylight", "vent", "other"] as const;
 export const CLIMATE_ZONE_RE = /^[1-8][ABC]?$/;
+/** Wind exposure categories B, C, D (ASCE 7 26.7.3). */
+export const WIND_EXPOSURES = ["B", "C", "D"] as const;
 
 const id = z.string({ error: "Required" }).min(1, "Required").max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`);
 const size = z.number({ error: "Enter a number" }).min(0, "Must not be negative");
@@ -213,7 +215,7 @@ export const siteSchema = z
       .object({
         ratedAssemblyRequired: z.boolean().default(false),
         basicWindSpeedMph: size.optional(),
-        exposure: z.enum(["B", "C", "D"]).optional(),
+        exposure: z.enum(WIND_EXPOSURES).optional(),
         leastHorizontalDimensionFt: positive.optional(),
         meanRoofHeightFt: positive.optional(),
       })
