@@ -79,6 +79,6 @@ export const ceilTol = (x: number) => Math.max(0, Math.ceil(x - 1e-9));
  * "2 rolls" when the exact figure is already whole. `one` / `many` name the unit.
  */
 export function roundedUp(exact: number, n: number, one: string, many = `${one}s`): string {
-  const unit = n === 1 ? one : many;
+  const unit = plural(n, one, many);
   return Math.abs(exact - n) <= 1e-9 ? `${n} ${unit}` : `${fmt(exact, 2)}, rounded up to ${n} ${unit}`;
 }
