@@ -4,7 +4,7 @@
  * against an authenticated echo of the same payload (POST /api/calc/echo) on the real app and a
  * throwaway benchmark database: targets ratio ≤ 2 and the takeoff round trip under 100 ms.
  * The route answers each plane's quantities unless asked for the full detail (?detail=full); the round trip is
- * timed both ways.
+ * timed both ways, and the server's Server-Timing header splits it: the engine's time there and serialising.
  * Run: `npm run bench:engine` (tsx scripts/bench-engine.ts [planes] [runs]).
  */
 import { performance } from "node:perf_hooks";
@@ -62,6 +62,9 @@ async function benchRoundTrip(planes: number, n: number) {
   try {
     const body = JSON.stringify(buildBenchRoof(planes));
     const answerBytes: Record<string, number> = {};
+    // The server's own split of a takeoff (its Server-Timing header): the engine with the input check, and
+    // serialising the answer.
+    const inServer: Record<string, { engine: number[]; json: number[] }> = {};
     const post = async (path: string) => {
       const t0 = performance.now();
       const res = await fetch(server.url + path, { method: "POST", headers: server.headers, body });
@@ -69,6 +72,12 @@ async function benchRoundTrip(planes: number, n: number) {
       const ms = performance.now() - t0;
       if (res.status !== 200) throw new Error(`${path} answered ${res.status}`);
       answerBytes[path] = answer.byteLength;
+      const timing = serverTiming(res.headers.get("server-timing"));
+      if (timing) {
+        const t = (inServer[path] ??= { engine: [], json: [] });
+        t.engine.push(timing.engine);
+        t.json.push(timing.json);
+      }
       return ms;
     };
     const routes = ["/api/calc/takeoff", "/api/calc/takeoff?detail=full", "/api/calc/echo"];
@@ -77,13 +86,23 @@ async function benchRoundTrip(planes: number, n: number) {
     // interpreted and slower than in steady state, which would flatter the ratio.
     for (let i = 0, t0 = performance.now(); i < 50 || performance.now() - t0 < RT_WARM_UP_MS; i++) for (const r of routes) await post(r);
     const times: number[][] = routes.map(() => []);
+    for (const t of Object.values(inServer)) t.engine.length = t.json.length = 0; // the warm-up's do not count
     for (let i = 0; i < n; i++) for (let k = 0; k < routes.length; k++) times[k].push(await post(routes[k]));
     const [takeoffMs, fullMs, echoMs] = times.map(median);
     const kb = (path: string) => Math.round(answerBytes[path] / 1024);
-    return { bytes: body.length, takeoffMs, fullMs, echoMs, takeoffKb: kb(routes[0]), fullKb: kb(routes[1]), runs: n };
+    const split = (path: string) => ({ engineMs: median(inServer[path].engine), jsonMs: median(inServer[path].json) });
+    return { bytes: body.length, takeoffMs, fullMs, echoMs, takeoffKb: kb(routes[0]), fullKb: kb(routes[1]), runs: n, takeoffSplit: split(routes[0]), fullSplit: split(routes[1]) };
   } finally {
     await server.close();
   }
+}
+
+/** The `engine` and `json` durations of a Server-Timing header (see server/routes/calc.routes.ts), or null. */
+function serverTiming(header: string | null): { engine: number; json: number } | null {
+  const dur = (name: string) => Number(new RegExp(`(?:^|,)\\s*${name};dur=([0-9.]+)`).exec(header ?? "")?.[1] ?? NaN);
+  const engine = dur("engine");
+  const json = dur("json");
+  return Number.isFinite(engine) && Number.isFinite(json) ? { engine, json } : null;
 }
 
 const line = (r: ReturnType<typeof benchEngine>) =>
@@ -103,3 +122,5 @@ console.log(
 console.log(
   `  with each plane's whole detail (?detail=full, ${rt.fullKb} KB answer): median ${rt.fullMs.toFixed(2)} ms, ratio ${(rt.fullMs / rt.echoMs).toFixed(2)}`,
 );
+const splitText = (s: { engineMs: number; jsonMs: number }) => `engine with the input check ${s.engineMs.toFixed(2)} ms, serialising the answer ${s.jsonMs.toFixed(2)} ms`;
+console.log(`  inside the server (its Server-Timing header, medians): default answer: ${splitText(rt.takeoffSplit)}; whole detail: ${splitText(rt.fullSplit)}`);

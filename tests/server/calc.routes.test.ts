@@ -9,6 +9,17 @@ import { gapStudyQuantitiesSchema, gapStudyResultSchema, takeoffQuantitiesSchema
 
 beforeEach(truncateAll);
 
+/** `engine;dur=1.234, json;dur=0.5` as { engine: 1.234, json: 0.5 }; throws on anything else. */
+function serverTiming(header: string | undefined): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const part of (header ?? "").split(",")) {
+    const m = /^\s*([a-z]+);dur=(\d+(?:\.\d+)?)\s*$/.exec(part);
+    if (!m) throw new Error(`not a Server-Timing entry: "${part}"`);
+    out[m[1]] = Number(m[2]);
+  }
+  return out;
+}
+
 const stack = {
   id: "s1",
   name: "Mesh and foil",
@@ -42,6 +53,25 @@ describe("POST /api/calc/takeoff", () => {
     expect(res.body.data.totals.slopedAreaSqFt).toBeCloseTo(1200 * Math.sqrt(180) / 12, 6);
     // One ridge of 40 ft, counted once although two planes share it.
     expect(res.body.data.edgeTotals.ridgeLf).toBeCloseTo(40, 6);
+  });
+
+  it("names the engine's time and the serialisation's in a Server-Timing header (W3C Server Timing syntax)", async () => {
+    const { agent, token } = await signedInAgent({ role: "estimator" });
+    for (const path of ["/api/calc/takeoff", "/api/calc/takeoff?detail=full"]) {
+      const res = await agent.post(path).set("X-CSRF-Token", token).send(gableInput());
+      expect(res.status).toBe(200);
+      expect(res.headers["content-type"]).toBe("application/json; charset=utf-8");
+      const timing = serverTiming(res.headers["server-timing"]);
+      expect(Object.keys(timing)).toEqual(["engine", "json"]);
+      expect(timing.engine).toBeGreaterThan(0);
+      expect(timing.json).toBeGreaterThan(0);
+    }
+    // A refused input has no timing: the error handler answers it.
+    const input = gableInput();
+    input.planes[0].pitch = 30;
+    const bad = await agent.post("/api/calc/takeoff").set("X-CSRF-Token", token).send(input);
+    expect(bad.status).toBe(400);
+    expect(bad.headers["server-timing"]).toBeUndefined();
   });
 
   it("gives each plane's whole detail with detail=full, and 400 for another detail", async () => {
@@ -108,6 +138,7 @@ describe("POST /api/calc/gap-study", () => {
     // Each plane's quantities by default, its whole detail with detail=full.
     expect(Object.keys(res.body.data.options[0].result.planes[0])).not.toContain("layers");
     expect(gapStudyQuantitiesSchema.safeParse(res.body.data).error).toBeUndefined();
+    expect(Object.keys(serverTiming(res.headers["server-timing"]))).toEqual(["engine", "json"]);
     const full = await agent
       .post("/api/calc/gap-study?detail=full")
       .set("X-CSRF-Token", token)
