@@ -13,20 +13,51 @@ export type UnderlaymentKind = "self-adhered" | "synthetic" | "felt";
 
 const pitchText = (p: number) => `${fmt(p, p % 1 === 0 ? 0 : 2)}:12`;
 
+/** A message names at most this many planes (or openings) and counts the rest; the advisory's planeIds list them all. */
+export const MAX_NAMED_IN_MESSAGE = 8;
+
 /**
- * Each item's text, comma-separated: the same as `items.map(term).join(", ")`, written as a loop. With map()
- * then join() here, V8's check of the mapped array's hidden class failed on every takeoff (a deoptimization
- * loop seen with node --trace-deopt), so the whole takeoff that had inlined this advisory left optimized code
- * each run.
+ * Each item's text, comma-separated, the first MAX_NAMED_IN_MESSAGE of them, then "and 12 more" for the rest.
+ * Written as a loop rather than map() then join(): with those, V8's check of the mapped array's hidden class
+ * failed on every takeoff (a deoptimization loop seen with node --trace-deopt), so the whole takeoff that had
+ * inlined this advisory left optimized code each run.
  */
 function listText<T>(items: readonly T[], term: (x: T) => string): string {
   let s = "";
-  for (let k = 0; k < items.length; k++) s += (k > 0 ? ", " : "") + term(items[k]);
+  const n = Math.min(items.length, MAX_NAMED_IN_MESSAGE);
+  for (let k = 0; k < n; k++) s += (k > 0 ? ", " : "") + term(items[k]);
+  if (items.length > n) s += ` and ${items.length - n} more`;
   return s;
 }
 
-/** `"a", "b"`: each plane's id in quotes. */
-const quotedIds = (planes: readonly { id: string }[]) => listText(planes, (p) => `"${p.id}"`);
+/**
+ * A plane as the advisories name it in their messages: `label` is what the estimator called it (see planeLabels),
+ * `id` goes into the advisory's planeIds.
+ */
+export interface NamedPlane {
+  id: string;
+  label: string;
+}
+
+/** `South slope, North slope`: the planes' labels. */
+const planeList = (planes: readonly NamedPlane[]) => listText(planes, (p) => p.label);
+
+/**
+ * How messages name each plane: its name; its id when it has no name; its name and id, as "South slope (hip-s)",
+ * when another plane of the roof has the same name (two buildings each with a "South slope").
+ */
+export function planeLabels(planes: readonly { id: string; name: string }[]): string[] {
+  const uses = new Map<string, number>();
+  for (const p of planes) {
+    const name = p.name.trim();
+    if (name) uses.set(name, (uses.get(name) ?? 0) + 1);
+  }
+  return planes.map((p) => {
+    const name = p.name.trim();
+    if (!name) return p.id;
+    return uses.get(name)! > 1 ? `${name} (${p.id})` : name;
+  });
+}
 
 /**
  * Code minimum slope for metal roof panels, IRC 2021 R905.10.2 / IBC 1507.4.2: lapped, non-soldered
@@ -38,7 +69,7 @@ export function codeMinimumPitch(system: PanelSystem, lapSealant: boolean): numb
 }
 
 export function slopeAdvisories(
-  planes: { id: string; pitch: number }[],
+  planes: (NamedPlane & { pitch: number })[],
   panel: { system: PanelSystem; lapSealant: boolean; minPitch?: number },
 ): Advisory[] {
   const out: Advisory[] = [];
@@ -55,7 +86,7 @@ export function slopeAdvisories(
       advisory(
         "slope-below-code-minimum",
         "error",
-        `The code's minimum slope for ${what} is ${pitchText(code)}; ${listText(belowCode, (p) => `"${p.id}" is ${pitchText(p.pitch)}`)}. ` +
+        `The code's minimum slope for ${what} is ${pitchText(code)}; ${listText(belowCode, (p) => `${p.label} is ${pitchText(p.pitch)}`)}. ` +
           "Choose a panel system rated for this slope or change the roof's slope.",
         "IRC 2021 R905.10.2; IBC 2021 1507.4.2",
         belowCode.map((p) => p.id),
@@ -69,7 +100,7 @@ export function slopeAdvisories(
         advisory(
           "slope-below-maker-minimum",
           "warning",
-          `The panel maker's minimum slope is ${pitchText(panel.minPitch)}; ${listText(belowMaker, (p) => `"${p.id}" is ${pitchText(p.pitch)}`)}. ` +
+          `The panel maker's minimum slope is ${pitchText(panel.minPitch)}; ${listText(belowMaker, (p) => `${p.label} is ${pitchText(p.pitch)}`)}. ` +
             "Below it the profile can leak and the warranty may not apply: use a profile rated for the slope.",
           "the panel maker's installation instructions",
           belowMaker.map((p) => p.id),
@@ -82,7 +113,7 @@ export function slopeAdvisories(
 
 export function underlaymentAdvisories(
   stack: { kind: UnderlaymentKind; highTemp: boolean; layers: number },
-  planes: { id: string; pitch: number }[],
+  planes: (NamedPlane & { pitch: number })[],
   basicWindSpeedMph: number | undefined,
 ): Advisory[] {
   const out: Advisory[] = [];
@@ -108,7 +139,7 @@ export function underlaymentAdvisories(
           advisory(
             "underlayment-two-layers-required",
             "warning",
-            `At 140 mph or more, slopes from 2:12 up to 4:12 need two layers of felt (a 19 in starter, then 36 in sheets lapped 19 in): ${quotedIds(twoToFour)}.`,
+            `At 140 mph or more, slopes from 2:12 up to 4:12 need two layers of felt (a 19 in starter, then 36 in sheets lapped 19 in): ${planeList(twoToFour)}.`,
             "IRC 2021 Table R905.1.1(2)",
             twoToFour.map((p) => p.id),
           ),
@@ -123,7 +154,7 @@ export function underlaymentAdvisories(
         advisory(
           "underlayment-felt-two-layers-recommended",
           "info",
-          `The trade recommends two layers of No. 30 felt under metal from 3:12 up to 4:12: ${quotedIds(threeToFour)}.`,
+          `The trade recommends two layers of No. 30 felt under metal from 3:12 up to 4:12: ${planeList(threeToFour)}.`,
           "NRCA metal roof manual (as quoted in trade guidance)",
           threeToFour.map((p) => p.id),
         ),
@@ -136,7 +167,7 @@ export function underlaymentAdvisories(
       advisory(
         "underlayment-unsuited-to-slope",
         "warning",
-        `Below 2:12 a mechanically fastened ${kindText} lets water that gets under the panels reach the deck; use a self-adhered membrane on ${quotedIds(low)}.`,
+        `Below 2:12 a mechanically fastened ${kindText} lets water that gets under the panels reach the deck; use a self-adhered membrane on ${planeList(low)}.`,
         "common practice",
         low.map((p) => p.id),
       ),
@@ -243,7 +274,7 @@ export function ratedAssemblyAdvisory(opts: { required: boolean; spacerKind: str
   ];
 }
 
-export function fallProtectionAdvisories(planes: { id: string; pitch: number }[]): Advisory[] {
+export function fallProtectionAdvisories(planes: (NamedPlane & { pitch: number })[]): Advisory[] {
   const out: Advisory[] = [
     advisory(
       "fall-protection",
@@ -261,7 +292,7 @@ export function fallProtectionAdvisories(planes: { id: string; pitch: number }[]
       advisory(
         "steep-roof-fall-protection",
         "warning",
-        `Steep roof (over 4 in 12): ${quotedIds(steep)}. Use guardrails with toeboards, safety nets or personal fall arrest; ` +
+        `Steep roof (over 4 in 12): ${planeList(steep)}. Use guardrails with toeboards, safety nets or personal fall arrest; ` +
           "metal panels are slippery, especially when wet, frosted or dusty, and loose panels can slide. Plan anchors and staging before loading the roof.",
         "OSHA 29 CFR 1926.500(b) (steep roof); 1926.501(b)(11)",
         steep.map((p) => p.id),
@@ -271,7 +302,7 @@ export function fallProtectionAdvisories(planes: { id: string; pitch: number }[]
   return out;
 }
 
-export function panelLengthAdvisories(planes: { id: string; longestIn: number }[], maxLengthFt: number, longInfoFt: number): Advisory[] {
+export function panelLengthAdvisories(planes: (NamedPlane & { longestIn: number })[], maxLengthFt: number, longInfoFt: number): Advisory[] {
   const out: Advisory[] = [];
   const over = planes.filter((p) => p.longestIn > maxLengthFt * 12 + 1e-9);
   if (over.length) {
@@ -279,7 +310,7 @@ export function panelLengthAdvisories(planes: { id: string; longestIn: number }[
       advisory(
         "panel-over-max-length",
         "warning",
-        `Panels longer than ${fmt(maxLengthFt, 0)} ft on ${listText(over, (p) => `"${p.id}" (${fmt(p.longestIn / 12, 1)} ft)`)}: longer than trucks usually carry. ` +
+        `Panels longer than ${fmt(maxLengthFt, 0)} ft on ${listText(over, (p) => `${p.label} (${fmt(p.longestIn / 12, 1)} ft)`)}: longer than trucks usually carry. ` +
           "Plan on-site roll-forming, or an end lap or step where the panel maker allows one.",
         "common practice (shipping limit)",
         over.map((p) => p.id),
@@ -292,7 +323,7 @@ export function panelLengthAdvisories(planes: { id: string; longestIn: number }[
       advisory(
         "panel-long-expansion",
         "info",
-        `Panels over ${fmt(longInfoFt, 0)} ft on ${quotedIds(long)} move with heat: use floating clips and the maker's expansion details at the ridge and eave.`,
+        `Panels over ${fmt(longInfoFt, 0)} ft on ${planeList(long)} move with heat: use floating clips and the maker's expansion details at the ridge and eave.`,
         "common practice",
         long.map((p) => p.id),
       ),
@@ -314,14 +345,18 @@ export function reroofAdvisory(existingLayers: number, tearOff: boolean): Adviso
   ];
 }
 
-export function cricketAdvisories(items: { planeId: string; kind: string; widthIn?: number; id?: string }[]): Advisory[] {
+export function cricketAdvisories(
+  items: { planeId: string; kind: string; widthIn?: number; id?: string }[],
+  /** How the message names the plane with this id (see planeLabels); the id itself when not given. */
+  labelOf: (planeId: string) => string = (id) => id,
+): Advisory[] {
   const wide = items.filter((i) => (i.kind === "chimney" || i.kind === "skylight" || i.kind === "other") && (i.widthIn ?? 0) > CRICKET_MIN_WIDTH_IN);
   if (!wide.length) return [];
   return [
     advisory(
       "cricket-required",
       "warning",
-      `A cricket (saddle) is needed on the high side of each ${listText(wide, (i) => `${i.kind}${i.id ? ` "${i.id}"` : ""} (${fmt(i.widthIn!, 0)} in wide)`)}: ` +
+      `A cricket (saddle) is needed on the high side of each ${listText(wide, (i) => `${i.kind}${i.id ? ` "${i.id}"` : ""} on ${labelOf(i.planeId)} (${fmt(i.widthIn!, 0)} in wide)`)}: ` +
         "penetrations more than 30 in wide across the slope must have one.",
       "IRC 2021 R903.2.2",
       [...new Set(wide.map((i) => i.planeId))],
@@ -378,7 +413,7 @@ export function treatedLumberAdvisory(opts: { treated: boolean; substrate: strin
   ];
 }
 
-export function windAdvisories(opts: { planes: { id: string; pitch: number }[]; heightMissing: boolean; lowSlopeWithoutHeight: string[]; aFt: number }): Advisory[] {
+export function windAdvisories(opts: { planes: (NamedPlane & { pitch: number })[]; heightMissing: boolean; lowSlopeWithoutHeight: string[]; aFt: number }): Advisory[] {
   const out: Advisory[] = [
     advisory(
       "wind-zones-simplified",
@@ -417,7 +452,7 @@ export function windAdvisories(opts: { planes: { id: string; pitch: number }[]; 
       advisory(
         "pitch-beyond-wind-figures",
         "info",
-        `Above 45° (12:12) the roof pressure figures do not apply: ${quotedIds(beyond)}. Have a design professional set the attachment (wall pressures may govern).`,
+        `Above 45° (12:12) the roof pressure figures do not apply: ${planeList(beyond)}. Have a design professional set the attachment (wall pressures may govern).`,
         "ASCE 7-16 Fig. 30.3-2 series (roof angles up to 45°)",
         beyond.map((p) => p.id),
       ),

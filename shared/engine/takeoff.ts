@@ -17,6 +17,7 @@ import {
   gapTooThinAdvisory,
   iceBarrierAdvisories,
   panelLengthAdvisories,
+  planeLabels,
   ratedAssemblyAdvisory,
   reroofAdvisory,
   slopeAdvisories,
@@ -942,7 +943,9 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     const et = input.planes[i].edgeTypes;
     overrides.push(Object.keys(et).length ? et : null);
   }
-  const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e]);
+  // How the advisories' messages name each plane (its name; see planeLabels).
+  const labels = planeLabels(input.planes);
+  const edgesAll = analyseEdges(geoms, (p, e) => overrides[p]?.[e], (p) => labels[p]);
   const advisories: Advisory[] = [];
   let edgeTotals: EdgeTotals = edgesAll.totals;
   let runs = edgesAll.runs;
@@ -1027,10 +1030,10 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
   const thermalAdvisories: Advisory[] = [];
   // The computed planes of each assembly (by id), in plane order: one pass instead of a filter per assembly.
   const planesOfStack = new Map<string, number[]>();
-  // Each plane's { id, pitch }, one record for both its assembly's list and the roof's (the advisories only
-  // read them).
-  const pitchOf: { id: string; pitch: number }[] = [];
-  for (let i = 0; i < geoms.length; i++) pitchOf.push({ id: geoms[i].id, pitch: geoms[i].pitch });
+  // Each plane's { id, label, pitch }, one record for both its assembly's list and the roof's (the advisories
+  // only read them).
+  const pitchOf: { id: string; label: string; pitch: number }[] = [];
+  for (let i = 0; i < geoms.length; i++) pitchOf.push({ id: geoms[i].id, label: labels[i], pitch: geoms[i].pitch });
   for (let r = 0; r < scoped.length; r++) {
     const i = scoped[r];
     const sid = planeStacks[i].id;
@@ -1042,7 +1045,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     const planeIdx = planesOfStack.get(s.id);
     if (!planeIdx) continue;
     const ids: string[] = [];
-    const pitches: { id: string; pitch: number }[] = [];
+    const pitches: { id: string; label: string; pitch: number }[] = [];
     let plan = 0;
     let sloped = 0;
     // Pitch for the air-space table: the assembly's largest plane (the first of equals).
@@ -1099,7 +1102,7 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
 
   // ---- ventilation (the roof as one vented space) -------------------------------------------------------
   const scopedPlaneIds: string[] = [];
-  const scopedPlanes: { id: string; pitch: number }[] = [];
+  const scopedPlanes: { id: string; label: string; pitch: number }[] = [];
   let planArea = 0;
   for (let r = 0; r < scoped.length; r++) {
     const i = scoped[r];
@@ -1145,18 +1148,22 @@ export function computeTakeoffParsed(input: TakeoffInput, opts: TakeoffOptions =
     }),
   );
   // The planes grouped by their assembly's longest panel allowed, groups in order of first plane.
-  const byMaxLength = new Map<number, { id: string; longestIn: number }[]>();
+  const byMaxLength = new Map<number, { id: string; label: string; longestIn: number }[]>();
   for (let r = 0; r < scoped.length; r++) {
     const i = scoped[r];
     const max = planeStacks[i].panel.maxLengthFt ?? rules.panels.maxLengthFt;
-    const entry = { id: geoms[i].id, longestIn: longestByPlane[i] };
+    const entry = { id: geoms[i].id, label: labels[i], longestIn: longestByPlane[i] };
     const list = byMaxLength.get(max);
     if (list) list.push(entry);
     else byMaxLength.set(max, [entry]);
   }
   for (const [mx, planes] of byMaxLength) addAll(advisories, panelLengthAdvisories(planes, mx, Math.min(rules.panels.longPanelInfoFt, mx)));
   addAll(advisories, reroofAdvisory(site.existingLayers, site.tearOff));
-  addAll(advisories, cricketAdvisories(penetrations));
+  if (penetrations.length) {
+    const labelById = new Map<string, string>();
+    for (let i = 0; i < geoms.length; i++) labelById.set(geoms[i].id, labels[i]);
+    addAll(advisories, cricketAdvisories(penetrations, (id) => labelById.get(id) ?? id));
+  }
   const transitionIds: string[] = [];
   for (let k = 0; k < runs.length; k++) if (runs[k].type === "transition") addAll(transitionIds, runs[k].planeIds);
   const transitionPlanes = unique(transitionIds).filter(isScopedId);

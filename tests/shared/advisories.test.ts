@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { codeMinimumPitch, slopeAdvisories } from "@shared/engine/advisories";
+import { codeMinimumPitch, fallProtectionAdvisories, MAX_NAMED_IN_MESSAGE, planeLabels, slopeAdvisories } from "@shared/engine/advisories";
 import { computeTakeoff } from "@shared/engine/takeoff";
 import { gableRoof } from "@shared/engine/roof/generators";
 
@@ -20,11 +20,13 @@ describe("minimum slopes for metal roof panels (IRC 2021 R905.10.2; IBC 1507.4.2
     ["exposed-fastener", false, 3], // lapped, non-soldered, without lap sealant 3:12
   ] as const)("%s, lap sealant %s → %f:12", (system, lapSealant, min) => {
     expect(codeMinimumPitch(system, lapSealant)).toBe(min);
-    expect(slopeAdvisories([{ id: "p", pitch: min }], { system, lapSealant })).toHaveLength(0);
-    const below = slopeAdvisories([{ id: "p", pitch: min - 0.01 }], { system, lapSealant });
+    expect(slopeAdvisories([{ id: "p", label: "Porch", pitch: min }], { system, lapSealant })).toHaveLength(0);
+    const below = slopeAdvisories([{ id: "p", label: "Porch", pitch: min - 0.01 }], { system, lapSealant });
     expect(below).toHaveLength(1);
     expect(below[0]).toMatchObject({ code: "slope-below-code-minimum", severity: "error", planeIds: ["p"] });
     expect(below[0].reference).toContain("R905.10.2");
+    // The message names the plane as the estimator did, with its slope.
+    expect(below[0].message).toMatch(/; Porch is [0-9.]+:12\./);
   });
 
   it("below the panel maker's minimum: a warning (e.g. about 3:12 for many snap-lock profiles)", () => {
@@ -162,5 +164,37 @@ describe("re-roofing, crickets, transitions, panel length, falls, wind range", (
     // errors first
     const sev = r.advisories.map((a) => a.severity);
     expect(sev.indexOf("error")).toBe(0);
+  });
+});
+
+describe("how messages name the planes", () => {
+  it("uses each plane's name, its id when unnamed, and name and id when two planes share a name", () => {
+    expect(planeLabels([{ id: "a", name: "Garage" }, { id: "b", name: "  " }, { id: "c", name: "South slope" }, { id: "d", name: "South slope " }])).toEqual([
+      "Garage",
+      "b",
+      "South slope (c)",
+      "South slope (d)",
+    ]);
+  });
+
+  it("names the planes in the takeoff's messages by name, never by a bare id", () => {
+    const planes = [...gableRoof(40, 30, 9, { idPrefix: "house" }), ...gableRoof(20, 16, 9, { idPrefix: "shed", origin: [60, 0] })].map((p, i) =>
+      i === 0 ? { ...p, name: "Front", penetrations: [{ kind: "chimney", id: "ch1", widthIn: 40, lengthIn: 24 }] } : p,
+    );
+    const result = run({ planes });
+    const steep = result.advisories.find((a) => a.code === "steep-roof-fall-protection")!;
+    // Both buildings have a "North slope": those two carry their ids too; the one "South slope" left does not.
+    expect(steep.message).toContain("Steep roof (over 4 in 12): Front, North slope (house-n), South slope, North slope (shed-n).");
+    expect(steep.planeIds).toEqual(["house-s", "house-n", "shed-s", "shed-n"]);
+    const cricket = result.advisories.find((a) => a.code === "cricket-required")!;
+    expect(cricket.message).toContain('chimney "ch1" on Front (40 in wide)');
+  });
+
+  it("names at most eight planes and counts the rest, while planeIds lists every one", () => {
+    const planes = Array.from({ length: 11 }, (_, i) => ({ id: `p${i}`, label: `Slope ${i}`, pitch: 6 }));
+    const steep = fallProtectionAdvisories(planes).find((a) => a.code === "steep-roof-fall-protection")!;
+    expect(MAX_NAMED_IN_MESSAGE).toBe(8);
+    expect(steep.message).toContain("Steep roof (over 4 in 12): Slope 0, Slope 1, Slope 2, Slope 3, Slope 4, Slope 5, Slope 6, Slope 7 and 3 more.");
+    expect(steep.planeIds).toHaveLength(11);
   });
 });

@@ -491,7 +491,12 @@ const planePieces: EdgePiece[] = [];
  * Math.hypot of the edge's plan vector. The tables here are shared by every call, so `overrides` must not
  * call analyseEdges or buildRuns itself.
  */
-export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () => undefined): EdgeAnalysis {
+export function analyseEdges(
+  planes: PlaneGeometry[],
+  overrides: Overrides = () => undefined,
+  /** How the advisories name plane p (its name, see planeLabels); its id when not given. */
+  labelOf: (p: number) => string = (p) => planes[p].id,
+): EdgeAnalysis {
   const nPlanes = planes.length;
   const T = table;
   // First edge row of each plane in the edge table, and each edge's side (falls / level / rises).
@@ -657,7 +662,7 @@ export function analyseEdges(planes: PlaneGeometry[], overrides: Overrides = () 
             advisory(
               "shared-edge-height-mismatch",
               "warning",
-              `Planes "${g.id}" and "${q.id}" meet along an edge but their heights there differ by up to ${Math.max(d0, d1).toFixed(2)} ft. Check the pitches, eave edges and base elevations: the edge type and lengths may be wrong.`,
+              `Planes ${labelOf(p)} and ${labelOf(qi)} meet along an edge but their heights there differ by up to ${Math.max(d0, d1).toFixed(2)} ft. Check the pitches, eave edges and base elevations: the edge type and lengths may be wrong.`,
               "common practice",
               [g.id, q.id],
             ),
