@@ -69,6 +69,13 @@ describe("Gap study section", { timeout: 20_000 }, () => {
     });
     expect(summer[2]).toHaveTextContent("not applicable — ventilated");
 
+    // each spacer material by its quantity, purchase unit and description (the price-book key is not shown)
+    const materialsRow = within(table).getByRole("row", { name: /Spacer materials/ });
+    const countered = within(within(materialsRow).getAllByRole("cell")[2]!).getAllByRole("listitem").map((li) => li.textContent);
+    expect(countered).toEqual(study.options[2]!.summary.spacerMaterials.map((m) => `${m.quantity} ${m.unit} · ${m.description}`));
+    expect(countered.join(" ")).toMatch(/1x4 counter-battens/);
+    expect(within(materialsRow).queryByText(/screw-batten|batten-1x4/)).toBeNull();
+
     // cost per square: spacer materials × price-book unit cost ÷ squares of the chosen planes
     const costRow = within(table).getByRole("row", { name: /Spacer cost per square/ });
     const battens = study.options[1]!;

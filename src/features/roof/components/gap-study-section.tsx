@@ -285,8 +285,8 @@ function StudyTable({
                 o.summary.spacerMaterials.length ? (
                   <ul className="space-y-0.5 text-xs">
                     {o.summary.spacerMaterials.map((m) => (
-                      <li key={m.key}>
-                        <span className="font-medium">{m.quantity}</span> {m.unit} {m.key}
+                      <li key={m.key} title={m.basis}>
+                        <span className="font-medium">{m.quantity}</span> {m.unit} · {m.description}
                       </li>
                     ))}
                   </ul>
@@ -323,8 +323,8 @@ function StudyTable({
               return cell(
                 o,
                 <details>
-                  <summary className="cursor-pointer text-xs">
-                    <span className="inline-flex flex-wrap gap-x-2">
+                  <summary className="cursor-pointer whitespace-nowrap text-xs">
+                    <span className="inline-flex gap-x-2">
                       {n.error > 0 && <SeverityMark severity="error" className="text-danger-700" />}
                       {n.error > 0 && <span>{n.error}</span>}
                       {n.warning > 0 && <SeverityMark severity="warning" className="text-caution-700" />}
