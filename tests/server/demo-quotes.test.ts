@@ -74,16 +74,23 @@ describe("demo quotes", () => {
     const inReview = await QuoteRevision.findAll({ where: { companyId: owner.companyId, status: "in_review" } });
     expect(new Set(inReview.map((r) => r.submittedAt!.getTime())).size).toBe(inReview.length);
 
-    // Every quote the homeowner received has its proposal record, with the progress the board shows.
+    // Every revision the homeowner received has its proposal record, with the progress the board shows: the
+    // current revision of each sent, accepted, declined or expired quote, and the sent revision 1 of the quote
+    // revised afterwards (its link still live: nothing newer was sent).
     const received = await Quote.findAll({ where: { companyId: owner.companyId, status: ["sent", "accepted", "declined", "expired"] } });
     const proposals = await Proposal.findAll({ where: { companyId: owner.companyId } });
-    expect(proposals.map((p) => p.quoteId).sort()).toEqual(received.map((q) => q.id).sort());
+    const sentRevisions = [...received.map((q) => q.currentRevisionId!), first!.id];
+    expect(proposals.map((p) => p.revisionId).sort()).toEqual(sentRevisions.sort());
     for (const p of proposals) {
-      const q = received.find((x) => x.id === p.quoteId)!;
-      expect(p.status).toBe(q.status === "sent" ? "active" : q.status);
+      const q = quotes.find((x) => x.id === p.quoteId)!;
+      expect(p.status).toBe(q.status === "sent" || p.revisionId !== q.currentRevisionId ? "active" : q.status);
       expect(p.viewedAt).not.toBeNull();
       if (p.status === "accepted") expect([p.acceptedAt, p.acceptedOptionId, p.signerName].every(Boolean)).toBe(true);
     }
+    // So every proposed job has a link out with the homeowner.
+    const proposed = [...jobs.values()].filter((j) => j.status === "proposed");
+    expect(proposed.length).toBeGreaterThanOrEqual(2);
+    for (const j of proposed) expect(proposals.some((p) => p.jobId === j.id && p.status === "active"), `job ${j.id}`).toBe(true);
     // Scheduled and installed jobs have their deposit paid.
     const done = await Job.findAll({ where: { companyId: owner.companyId, status: ["scheduled", "installed"] } });
     const paid = await Payment.findAll({ where: { companyId: owner.companyId, status: "paid" } });

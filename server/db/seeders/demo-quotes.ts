@@ -5,7 +5,7 @@
  *   and discount); an owner's own quote approved by that owner with a reason (an override) and a draft with
  *   two options; a quote in review and one the owner returned with a comment that the estimator then edited;
  * - proposed jobs: a quote sent to the homeowner, and one whose sent revision 1 was revised into an
- *   approved revision 2 (ready to send again);
+ *   approved revision 2 (ready to send again; revision 1's link is still live until then);
  * - won, scheduled and installed jobs: accepted quotes (one with two options);
  * - lost jobs: one declined, one expired.
  *
@@ -100,6 +100,8 @@ export async function seedDemoQuotes(sequelize: Sequelize, companyId: number, us
     return (await QuoteOption.findAll({ where: { revisionId: q.currentRevisionId! }, order: [["position", "ASC"]], transaction: t })).map((o) => o.id);
   };
 
+  /** Sent revisions that were revised afterwards: their proposal records are made with the others below. */
+  const sentBeforeRevising: Array<{ quoteId: number; revisionId: number }> = [];
   const [estA, estB, estC] = byStatus("estimating");
   const [propA, propB] = byStatus("proposed");
   const accepted = [...byStatus("won"), ...byStatus("scheduled"), ...byStatus("installed")];
@@ -168,6 +170,8 @@ export async function seedDemoQuotes(sequelize: Sequelize, companyId: number, us
     const by = writer(propB);
     const q = await approved(propB, [SPACER_OPTIONS[1]]);
     await setStatus(q, "sent");
+    // Revision 1 went to the homeowner: its link stays live (and is recorded below) until revision 2 is sent.
+    sentBeforeRevising.push({ quoteId: q, revisionId: (await Quote.findByPk(q, { transaction: t }))!.currentRevisionId! });
     await svc.reviseIn(q, by, t);
     const [mesh] = await optionIds(q);
     await svc.patchIn(q, { version: 1, options: [{ id: mesh, label: "Mesh + foil", spec: SPACER_OPTIONS[1].spec }, SPACER_OPTIONS[2]] }, by, t);
@@ -198,18 +202,21 @@ export async function seedDemoQuotes(sequelize: Sequelize, companyId: number, us
   const DAY = 24 * HOUR;
   const signers = ["accepted", "declined", "expired", "sent"] as const;
   const sentQuotes = await Quote.findAll({ where: { companyId, status: [...signers] }, transaction: t });
-  for (const q of sentQuotes) {
+  const sent: Array<{ q: Quote; revisionId: number }> = sentQuotes.map((q) => ({ q, revisionId: q.currentRevisionId! }));
+  for (const r of sentBeforeRevising) sent.push({ q: (await Quote.findByPk(r.quoteId, { transaction: t }))!, revisionId: r.revisionId });
+  for (const { q, revisionId } of sent) {
     const job = jobs.find((j) => j.id === q.jobId)!;
     const customer = await Customer.findByPk(job.customerId, { transaction: t });
-    const options = await QuoteOption.findAll({ where: { revisionId: q.currentRevisionId! }, order: [["position", "ASC"]], transaction: t });
+    const options = await QuoteOption.findAll({ where: { revisionId }, order: [["position", "ASC"]], transaction: t });
     const sentAt = new Date(job.updatedAt.getTime() - 10 * DAY);
     const chosen = options[options.length > 1 ? 1 : 0];
-    const status = q.status === "sent" ? "active" : (q.status as "accepted" | "declined" | "expired");
+    // A revised quote's earlier link is still live: the homeowner has not answered it.
+    const status = q.status === "sent" || revisionId !== q.currentRevisionId ? "active" : (q.status as "accepted" | "declined" | "expired");
     const proposal = await Proposal.create(
       {
         companyId,
         quoteId: q.id,
-        revisionId: q.currentRevisionId!,
+        revisionId,
         jobId: job.id,
         tokenHash: randomBytes(32).toString("hex"), // no token exists for it: demo links cannot be opened
         status,
