@@ -259,14 +259,21 @@ export function gapTooThinAdvisory(opts: { atticType: string; kind: string; gapI
   ];
 }
 
+/** "zone 2", "zones 2 and 3", "zones 1, 2 and 3". */
+function zoneListText(zones: readonly string[]): string {
+  if (zones.length === 1) return `zone ${zones[0]}`;
+  return `zones ${zones.slice(0, -1).join(", ")} and ${zones[zones.length - 1]}`;
+}
+
 export function ratedAssemblyAdvisory(opts: { required: boolean; spacerKind: string; planeIds: string[] }): Advisory[] {
   if (!opts.required || opts.spacerKind === "none" || !opts.planeIds.length) return [];
   const what = opts.spacerKind === "battens" ? "battens" : opts.spacerKind === "mesh" ? "a mesh mat" : "a dimpled sheet";
+  const isAre = opts.spacerKind === "battens" ? "are" : "is";
   return [
     advisory(
       "spacer-voids-rated-assembly",
       "error",
-      `A tested uplift-rated assembly is required, but ${what} between the deck and the panels is not part of the panel system's tested assembly. ` +
+      `A tested uplift-rated assembly is required, but ${what} between the deck and the panels ${isAre} not part of the panel system's tested assembly. ` +
         "The rating no longer applies: have a design professional review the attachment, or use the maker's tested assembly.",
       "common practice (uplift ratings apply only to the assembly as tested)",
       opts.planeIds,
@@ -391,7 +398,7 @@ export function clipSpacingBattenAdvisory(limited: { planeId: string; zones: Win
     advisory(
       "clip-spacing-exceeds-battens",
       "warning",
-      `Clips can land only on battens (${fmt(battenSpacingIn, 0)} in apart), but the clip schedule asks for closer spacing in zone ${zones.join(", ")}. ` +
+      `Clips can land only on battens (${fmt(battenSpacingIn, 0)} in apart), but the clip schedule asks for closer spacing in ${zoneListText(zones)}. ` +
         "The count uses the batten spacing. Add battens at the closer spacing in those zones, or build a solid second deck over sleepers.",
       "common practice; the panel maker's uplift table governs",
       planeIds,

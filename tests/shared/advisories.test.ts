@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { codeMinimumPitch, fallProtectionAdvisories, MAX_NAMED_IN_MESSAGE, planeLabels, slopeAdvisories } from "@shared/engine/advisories";
+import { clipSpacingBattenAdvisory, codeMinimumPitch, fallProtectionAdvisories, MAX_NAMED_IN_MESSAGE, planeLabels, ratedAssemblyAdvisory, slopeAdvisories } from "@shared/engine/advisories";
 import { computeTakeoff } from "@shared/engine/takeoff";
 import { gableRoof } from "@shared/engine/roof/generators";
 
@@ -196,5 +196,17 @@ describe("how messages name the planes", () => {
     expect(MAX_NAMED_IN_MESSAGE).toBe(8);
     expect(steep.message).toContain("Steep roof (over 4 in 12): Slope 0, Slope 1, Slope 2, Slope 3, Slope 4, Slope 5, Slope 6, Slope 7 and 3 more.");
     expect(steep.planeIds).toHaveLength(11);
+  });
+});
+
+describe("message wording", () => {
+  it("lists zones in words and agrees the verb with the spacer", () => {
+    const one = clipSpacingBattenAdvisory([{ planeId: "a", zones: ["3"] }], 24)[0];
+    expect(one.message).toContain("asks for closer spacing in zone 3.");
+    const two = clipSpacingBattenAdvisory([{ planeId: "a", zones: ["3", "2"] }, { planeId: "b", zones: ["2"] }], 24)[0];
+    expect(two.message).toContain("asks for closer spacing in zones 2 and 3.");
+    expect(two.planeIds).toEqual(["a", "b"]);
+    expect(ratedAssemblyAdvisory({ required: true, spacerKind: "battens", planeIds: ["a"] })[0].message).toContain("battens between the deck and the panels are not part");
+    expect(ratedAssemblyAdvisory({ required: true, spacerKind: "mesh", planeIds: ["a"] })[0].message).toContain("a mesh mat between the deck and the panels is not part");
   });
 });
