@@ -31,6 +31,13 @@ describe("seedDemoJobs", () => {
 
     const jobs = await Job.findAll({ where: { companyId: company.id } });
     expect(new Set(jobs.map((j) => j.status))).toEqual(new Set(JOB_STATUSES));
+    // Each customer dates from their first job, not from the moment of seeding.
+    for (const c of customers) {
+      const theirs = jobs.filter((j) => j.customerId === c.id);
+      if (!theirs.length) continue;
+      expect(c.createdAt.getTime()).toBe(Math.min(...theirs.map((j) => j.createdAt.getTime())));
+      expect(c.updatedAt.getTime()).toBeLessThan(Date.now() - 86_400_000);
+    }
 
     const roofs = await Roof.findAll({ where: { companyId: company.id } });
     const roofByJob = new Map(roofs.map((r) => [r.jobId, r]));

@@ -191,6 +191,8 @@ export async function seedDemoJobs(
       );
     }
 
+    /** When each customer's first job was created. */
+    const customerSince = new Map<number, Date>();
     for (const spec of JOBS) {
       const customer = customers[spec.customer];
       const site = jobSiteSchema.parse({
@@ -244,8 +246,18 @@ export async function seedDemoJobs(
       if (spec.crew && crew) await JobCrew.create({ jobId: job.id, userId: crew.id }, { transaction: t });
       // Spread the board's "last change" over the past weeks.
       const when = daysAgo(spec.daysAgo);
+      const created = daysAgo(spec.daysAgo + 3);
       await sequelize.query("UPDATE jobs SET created_at = ?, updated_at = ? WHERE id = ?", {
-        replacements: [daysAgo(spec.daysAgo + 3), when, job.id],
+        replacements: [created, when, job.id],
+        transaction: t,
+      });
+      const known = customerSince.get(customer.id);
+      if (!known || created < known) customerSince.set(customer.id, created);
+    }
+    // Each customer was added with their first job (the customers list's "last change" is not all today).
+    for (const [customerId, since] of customerSince) {
+      await sequelize.query("UPDATE customers SET created_at = ?, updated_at = ? WHERE id = ?", {
+        replacements: [since, since, customerId],
         transaction: t,
       });
     }
