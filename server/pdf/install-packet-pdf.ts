@@ -5,6 +5,7 @@
  */
 import { formatDate, formatFeetInches, formatInchesAsFeet, formatPitch, formatSquares } from "../../shared/schemas/proposal";
 import type { InstallPacketDocDto, InstallPlane, ZoneDiagram, ZoneFastenerRow } from "../../shared/schemas/install-packet";
+import { zoneListText } from "../../shared/engine/format";
 import { loadInterFonts, type FontFamily } from "./fonts";
 import { cautions, labelPoint } from "./proposal-pdf";
 import { COLORS, Flow, Typesetter, drawCompanyMark, drawPageFooters, newDocument, polygonPath, type Doc, type TextStyle } from "./typeset";
@@ -224,7 +225,7 @@ function planeBlock(f: Flow, p: InstallPlane): void {
   const endY = fastenerTable(f, p.fasteners, tableX, tableW, p.system === "standing-seam");
   y = endY;
   if (p.spacingLimitedByBattens.length) {
-    y = ts.block(`Batten spacing sets the clip spacing in zone ${p.spacingLimitedByBattens.join(", ")}: check the panel maker's schedule.`, tableX, y + 4, tableW, NOTE);
+    y = ts.block(`Batten spacing sets the clip spacing in ${zoneListText(p.spacingLimitedByBattens)}: check the panel maker's schedule.`, tableX, y + 4, tableW, NOTE);
   }
   f.y = Math.max(top + diagramH, y) + 6;
 }

@@ -4,7 +4,7 @@
  * plain-language message, the published reference or "common practice", and the planes concerned.
  */
 import { advisory, type Advisory } from "./advisory";
-import { fmt } from "./format";
+import { fmt, zoneListText } from "./format";
 import { CRICKET_MIN_WIDTH_IN } from "./trim";
 import { WIND_FIGURES_MAX_PITCH, type WindZone } from "./wind/zones";
 
@@ -257,12 +257,6 @@ export function gapTooThinAdvisory(opts: { atticType: string; kind: string; gapI
       opts.planeIds,
     ),
   ];
-}
-
-/** "zone 2", "zones 2 and 3", "zones 1, 2 and 3". */
-function zoneListText(zones: readonly string[]): string {
-  if (zones.length === 1) return `zone ${zones[0]}`;
-  return `zones ${zones.slice(0, -1).join(", ")} and ${zones[zones.length - 1]}`;
 }
 
 export function ratedAssemblyAdvisory(opts: { required: boolean; spacerKind: string; planeIds: string[] }): Advisory[] {

@@ -82,3 +82,10 @@ export function roundedUp(exact: number, n: number, one: string, many = `${one}s
   const unit = plural(n, one, many);
   return Math.abs(exact - n) <= 1e-9 ? `${n} ${unit}` : `${fmt(exact, 2)}, rounded up to ${n} ${unit}`;
 }
+
+/** Wind zones in words, lowest first: "zone 3", "zones 2 and 3", "zones 1, 2 and 3". */
+export function zoneListText(zones: readonly string[]): string {
+  const z = [...zones].sort();
+  if (z.length === 1) return `zone ${z[0]}`;
+  return `zones ${z.slice(0, -1).join(", ")} and ${z[z.length - 1]}`;
+}

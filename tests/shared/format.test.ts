@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { fmt, num, roundedUp, toFixedFast, wasteText } from "@shared/engine/format";
+import { fmt, num, roundedUp, toFixedFast, wasteText, zoneListText } from "@shared/engine/format";
 
 // The reference throughout is ECMA-262 Number.prototype.toFixed itself: toFixedFast must give its very text
 // for every number and 0 … 4 digits, and fmt the text of toFixed with separators inserted by the rule below.
@@ -122,5 +122,13 @@ describe("roundedUp (the last step of a basis, in words)", () => {
     expect(roundedUp(2, 2, "roll")).toBe("2 rolls");
     expect(roundedUp(1036 + 1e-12, 1036, "lf", "lf")).toBe("1036 lf");
     expect(roundedUp(0, 0, "tube")).toBe("0 tubes");
+  });
+});
+
+describe("zoneListText", () => {
+  it("puts wind zones in words, lowest first", () => {
+    expect(zoneListText(["3"])).toBe("zone 3");
+    expect(zoneListText(["3", "2"])).toBe("zones 2 and 3");
+    expect(zoneListText(["3", "1", "2"])).toBe("zones 1, 2 and 3");
   });
 });

@@ -1,6 +1,7 @@
 import type { ReactNode } from "react";
 import type { InstallArea, InstallPacketDocDto, InstallPlane, ZoneFastenerRow } from "@shared/schemas/install-packet";
 import { formatDate, formatFeetInches, formatInchesAsFeet, formatPitch, formatSquares } from "@shared/schemas/proposal";
+import { zoneListText } from "@shared/engine/format";
 import { cn } from "@/lib/cn";
 import { attachmentThumbUrl } from "@/features/install-packet/api/queries";
 import { ZoneDiagram, ZoneLegend } from "@/features/install-packet/components/zone-diagram";
@@ -91,7 +92,7 @@ function PlaneBlock({ plane }: { plane: InstallPlane }) {
           <FastenerTable rows={plane.fasteners} showSpacing={plane.system === "standing-seam"} caption={`Fasteners by zone, plane ${plane.number}`} />
           {plane.spacingLimitedByBattens.length > 0 && (
             <p className="text-xs font-semibold text-caution-700">
-              Batten spacing sets the clip spacing in zone {plane.spacingLimitedByBattens.join(", ")}: check the panel maker's schedule.
+              Batten spacing sets the clip spacing in {zoneListText(plane.spacingLimitedByBattens)}: check the panel maker's schedule.
             </p>
           )}
         </div>
