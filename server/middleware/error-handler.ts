@@ -11,6 +11,7 @@ import {
 } from "sequelize";
 import { HttpError, badRequest } from "../errors";
 import type { Logger } from "../logger";
+import { isLockConflict } from "../db/lock-conflict";
 
 /** Turns a zod error into the `{ path: message }` map the forms show beside their fields. */
 export function zodFields(err: ZodError): Record<string, string> {
@@ -33,12 +34,6 @@ function isDbDown(err: unknown): boolean {
   return false;
 }
 
-/** MariaDB gave up on a lock (deadlock 1213, lock wait timeout 1205): the transaction was rolled back. */
-function isLockConflict(err: unknown): boolean {
-  const e = err as { original?: { errno?: number }; parent?: { errno?: number } };
-  const errno = e?.original?.errno ?? e?.parent?.errno;
-  return errno === 1213 || errno === 1205;
-}
 
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;

@@ -15,6 +15,7 @@
 import { createHash } from "node:crypto";
 import type { Options, Store, ClientRateLimitInfo } from "express-rate-limit";
 import { QueryTypes, Transaction, type Sequelize } from "sequelize";
+import { retryOnLockConflict } from "../db/lock-conflict";
 import type { Logger } from "../logger";
 import { RATE_LIMIT_TABLE } from "../models/rate-limit-hit.model";
 
@@ -40,15 +41,6 @@ export function shutdownRateLimitStores(sequelize: Sequelize): void {
   live.delete(sequelize);
 }
 
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-
-function errno(err: unknown): number | undefined {
-  const e = err as { errno?: number; parent?: { errno?: number }; original?: { errno?: number } };
-  return e?.parent?.errno ?? e?.original?.errno ?? e?.errno;
-}
-
-/** ER_LOCK_DEADLOCK (1213) and ER_LOCK_WAIT_TIMEOUT (1205): safe to run the statement again. */
-const retryable = (err: unknown) => errno(err) === 1213 || errno(err) === 1205;
 
 /** Rows changed by a raw statement (the driver's OK packet, wherever Sequelize put it). */
 function affectedRows(result: unknown): number {
@@ -179,15 +171,9 @@ export class SequelizeRateLimitStore implements Store {
     return { totalHits: Number(row.hits), resetTime: new Date(Math.round(Number(row.reset_ms))) };
   }
 
-  private async retry<T>(fn: () => Promise<T>): Promise<T> {
-    for (let attempt = 1; ; attempt++) {
-      try {
-        return await fn();
-      } catch (err) {
-        if (attempt >= 5 || !retryable(err)) throw err;
-        await sleep(5 * attempt + Math.random() * 10);
-      }
-    }
+  /** A statement again after a lock conflict (each is safe to run twice: see retryOnLockConflict). */
+  private retry<T>(fn: () => Promise<T>): Promise<T> {
+    return retryOnLockConflict(fn);
   }
 }
 

@@ -20,6 +20,7 @@
 import { hostname } from "node:os";
 import { randomBytes } from "node:crypto";
 import { Op, QueryTypes, Transaction, type Sequelize } from "sequelize";
+import { retryOnLockConflict } from "../db/lock-conflict";
 import type { Logger } from "../logger";
 import type { MailMessage, Mailer } from "../mail/mailer";
 import { OutboxMessage } from "../models/mail.models";
@@ -215,30 +216,39 @@ export class OutboxWorker {
   /** Puts rows left in `sending` by a crashed process back to pending (counted as an attempt). */
   private async recoverStuck(): Promise<number> {
     const now = new Date();
-    const affected = await this.options.sequelize.query(
-      `UPDATE outbox_messages
-          SET status = IF(attempts + 1 >= ?, 'failed', 'pending'),
-              last_error = CONCAT('Left in sending by ', COALESCE(claimed_by, '?'), ' since ',
-                                  DATE_FORMAT(claimed_at, '%Y-%m-%d %H:%i:%s'),
-                                  ' UTC (the process stopped mid-send); it may have been delivered already'),
-              attempts = attempts + 1,
-              next_attempt_at = ?,
-              claimed_by = NULL,
-              claimed_at = NULL,
-              updated_at = ?
-        WHERE status = 'sending' AND claimed_at < ?`,
-      {
-        replacements: [this.maxAttempts, now, now, new Date(now.getTime() - this.stuckAfterMs)],
-        type: QueryTypes.BULKUPDATE,
-      },
+    const affected = await retryOnLockConflict(() =>
+      this.options.sequelize.query(
+        `UPDATE outbox_messages
+            SET status = IF(attempts + 1 >= ?, 'failed', 'pending'),
+                last_error = CONCAT('Left in sending by ', COALESCE(claimed_by, '?'), ' since ',
+                                    DATE_FORMAT(claimed_at, '%Y-%m-%d %H:%i:%s'),
+                                    ' UTC (the process stopped mid-send); it may have been delivered already'),
+                attempts = attempts + 1,
+                next_attempt_at = ?,
+                claimed_by = NULL,
+                claimed_at = NULL,
+                updated_at = ?
+          WHERE status = 'sending' AND claimed_at < ?`,
+        {
+          replacements: [this.maxAttempts, now, now, new Date(now.getTime() - this.stuckAfterMs)],
+          type: QueryTypes.BULKUPDATE,
+        },
+      ),
     );
     if (affected) this.options.logger?.warn(`outbox: recovered ${affected} e-mail(s) stuck in sending`);
     return affected;
   }
 
-  /** Claims due rows for this worker; rows another worker has locked are skipped, not waited for. */
+  /**
+   * Claims due rows for this worker; rows another worker has locked are skipped, not waited for. A deadlock with
+   * another worker's writes rolls the claim back, and it is made again.
+   */
   private async claim(): Promise<number[]> {
     const { sequelize } = this.options;
+    return retryOnLockConflict(() => this.claimOnce(sequelize));
+  }
+
+  private claimOnce(sequelize: Sequelize): Promise<number[]> {
     return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
       const now = new Date();
       const rows = await sequelize.query<{ id: number | string | bigint }>(
@@ -295,16 +305,18 @@ export class OutboxWorker {
       const attempts = row.attempts + 1;
       const failed = isPermanent(err) || attempts >= this.maxAttempts;
       const now = Date.now();
-      await OutboxMessage.update(
-        {
-          status: failed ? "failed" : "pending",
-          attempts,
-          lastError: describe(err),
-          nextAttemptAt: new Date(failed ? now : now + this.backoffMs(attempts)),
-          claimedBy: null,
-          claimedAt: null,
-        },
-        guard,
+      await retryOnLockConflict(() =>
+        OutboxMessage.update(
+          {
+            status: failed ? "failed" : "pending",
+            attempts,
+            lastError: describe(err),
+            nextAttemptAt: new Date(failed ? now : now + this.backoffMs(attempts)),
+            claimedBy: null,
+            claimedAt: null,
+          },
+          guard,
+        ),
       );
       this.options.logger?.warn(`outbox: e-mail ${row.id} (${row.kind}) ${failed ? "failed" : "will be retried"}`, {
         attempts,
@@ -312,17 +324,23 @@ export class OutboxWorker {
       });
       return failed ? "failed" : "retried";
     }
-    const [updated] = await OutboxMessage.update(
-      {
-        status: "sent",
-        attempts: row.attempts + 1,
-        sentAt: new Date(),
-        messageId: messageId.slice(0, 255),
-        // The sent copy keeps everything but the one-time links: only their hashes are stored elsewhere.
-        text: withoutLinkTokens(row.text),
-        html: withoutLinkTokens(row.html),
-      },
-      guard,
+    // The e-mail is gone: marking it sent must not fail on a lock conflict with another worker's claim (InnoDB
+    // can pick this statement as a deadlock's victim), or the row would stay in sending and be sent again
+    // once recovered. The guard makes a second run change nothing more.
+    const sentAt = new Date();
+    const [updated] = await retryOnLockConflict(() =>
+      OutboxMessage.update(
+        {
+          status: "sent",
+          attempts: row.attempts + 1,
+          sentAt,
+          messageId: messageId.slice(0, 255),
+          // The sent copy keeps everything but the one-time links: only their hashes are stored elsewhere.
+          text: withoutLinkTokens(row.text),
+          html: withoutLinkTokens(row.html),
+        },
+        guard,
+      ),
     );
     if (updated === 0) {
       this.options.logger?.warn(`outbox: e-mail ${row.id} was sent but its claim had been taken back (slow send)`);
