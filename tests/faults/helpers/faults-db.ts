@@ -3,7 +3,7 @@
  * and starting it from a drill (the drills' own instance; nothing else uses it).
  */
 import { spawnSync } from "node:child_process";
-import { existsSync, readFileSync } from "node:fs";
+import { existsSync, readdirSync, readFileSync } from "node:fs";
 import path from "node:path";
 import { startLocalMariaDb } from "../../../scripts/lib/mariadb";
 
@@ -42,8 +42,16 @@ export async function stopDb(db: FaultsDb, how: "shutdown" | "kill" | "freeze" =
   if (how === "freeze") {
     // SIGSTOP: the process is there and its port accepts connections, but nothing answers (a hung host,
     // a storage stall, a network path that drops packets). startDb sends SIGCONT.
-    process.kill(mariadbdPid(db), "SIGSTOP");
+    const pid = mariadbdPid(db);
+    process.kill(pid, "SIGSTOP");
     frozen.add(db.base);
+    // kill() returns once the signal is sent, not once every thread has stopped: until then a query can still be
+    // answered (a drill once got a 200 in 9 ms "during" the freeze). Wait until each thread's state is stopped.
+    const deadline = Date.now() + 5_000;
+    while (!allThreadsStopped(pid)) {
+      if (Date.now() > deadline) throw new Error("mariadbd's threads did not all stop after SIGSTOP");
+      await sleep(10);
+    }
     return;
   }
   if (how === "kill") {
@@ -71,6 +79,21 @@ function mariadbdPid(db: FaultsDb): number {
   const pid = Number(readFileSync(pidFile, "utf8").trim());
   if (!Number.isInteger(pid) || pid <= 0) throw new Error(`no mariadbd pid in ${pidFile}`);
   return pid;
+}
+
+/** Whether every thread of the process is stopped (state T in /proc/<pid>/task/<tid>/stat, proc(5)). */
+function allThreadsStopped(pid: number): boolean {
+  const tasks = readdirSync(`/proc/${pid}/task`);
+  return tasks.length > 0 && tasks.every((tid) => {
+    let stat: string;
+    try {
+      stat = readFileSync(`/proc/${pid}/task/${tid}/stat`, "utf8");
+    } catch {
+      return true; // the thread ended meanwhile
+    }
+    const state = stat[stat.lastIndexOf(")") + 2]; // after "pid (comm) ", whatever the thread's name holds
+    return state === "T" || state === "t";
+  });
 }
 
 function processAlive(pid: number): boolean {
