@@ -34,7 +34,6 @@ function isDbDown(err: unknown): boolean {
   return false;
 }
 
-
 export function toHttpError(err: unknown): HttpError {
   if (err instanceof HttpError) return err;
   if (err instanceof ZodError) return badRequest("Please check the highlighted fields", zodFields(err));

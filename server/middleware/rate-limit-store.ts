@@ -41,7 +41,6 @@ export function shutdownRateLimitStores(sequelize: Sequelize): void {
   live.delete(sequelize);
 }
 
-
 /** Rows changed by a raw statement (the driver's OK packet, wherever Sequelize put it). */
 function affectedRows(result: unknown): number {
   for (const part of Array.isArray(result) ? result : [result]) {
@@ -105,7 +104,7 @@ export class SequelizeRateLimitStore implements Store {
   async increment(key: string): Promise<ClientRateLimitInfo> {
     const rowKey = this.rowKey(key);
     const windowUs = this.windowMs * 1000;
-    return this.retry(() =>
+    return retryOnLockConflict(() =>
       this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
         // MariaDB applies the assignments left to right: `hits` is decided while reset_at is still the old value.
         await this.sequelize.query(
@@ -127,7 +126,7 @@ export class SequelizeRateLimitStore implements Store {
 
   /** Takes one hit back (express-rate-limit's skipSuccessfulRequests / skipFailedRequests); never below 0. */
   async decrement(key: string): Promise<void> {
-    await this.retry(() =>
+    await retryOnLockConflict(() =>
       this.sequelize.query(`UPDATE ${this.table} SET hits = hits - 1 WHERE \`key\` = ? AND hits > 0 AND reset_at > NOW(3)`, {
         replacements: [this.rowKey(key)],
       }),
@@ -135,7 +134,7 @@ export class SequelizeRateLimitStore implements Store {
   }
 
   async resetKey(key: string): Promise<void> {
-    await this.retry(() => this.sequelize.query(`DELETE FROM ${this.table} WHERE \`key\` = ?`, { replacements: [this.rowKey(key)] }));
+    await retryOnLockConflict(() => this.sequelize.query(`DELETE FROM ${this.table} WHERE \`key\` = ?`, { replacements: [this.rowKey(key)] }));
   }
 
   /** Forgets every count of this limiter (not the other limiters'). */
@@ -169,11 +168,6 @@ export class SequelizeRateLimitStore implements Store {
 
   private info(row: { hits: number; reset_ms: string | number }): ClientRateLimitInfo {
     return { totalHits: Number(row.hits), resetTime: new Date(Math.round(Number(row.reset_ms))) };
-  }
-
-  /** A statement again after a lock conflict (each is safe to run twice: see retryOnLockConflict). */
-  private retry<T>(fn: () => Promise<T>): Promise<T> {
-    return retryOnLockConflict(fn);
   }
 }
 

@@ -245,29 +245,27 @@ export class OutboxWorker {
    */
   private async claim(): Promise<number[]> {
     const { sequelize } = this.options;
-    return retryOnLockConflict(() => this.claimOnce(sequelize));
-  }
-
-  private claimOnce(sequelize: Sequelize): Promise<number[]> {
-    return sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
-      const now = new Date();
-      const rows = await sequelize.query<{ id: number | string | bigint }>(
-        `SELECT id FROM outbox_messages
-          WHERE status = 'pending' AND next_attempt_at <= ?
-          ORDER BY next_attempt_at, id
-          LIMIT ?
-          FOR UPDATE SKIP LOCKED`,
-        { replacements: [now, this.batchSize], type: QueryTypes.SELECT, transaction },
-      );
-      const ids = rows.map((r) => Number(r.id));
-      if (!ids.length) return [];
-      await sequelize.query(
-        `UPDATE outbox_messages SET status = 'sending', claimed_by = ?, claimed_at = ?, updated_at = ?
-          WHERE id IN (?) AND status = 'pending'`,
-        { replacements: [this.id, now, now, ids], transaction },
-      );
-      return ids;
-    });
+    return retryOnLockConflict(() =>
+      sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, async (transaction) => {
+        const now = new Date();
+        const rows = await sequelize.query<{ id: number | string | bigint }>(
+          `SELECT id FROM outbox_messages
+            WHERE status = 'pending' AND next_attempt_at <= ?
+            ORDER BY next_attempt_at, id
+            LIMIT ?
+            FOR UPDATE SKIP LOCKED`,
+          { replacements: [now, this.batchSize], type: QueryTypes.SELECT, transaction },
+        );
+        const ids = rows.map((r) => Number(r.id));
+        if (!ids.length) return [];
+        await sequelize.query(
+          `UPDATE outbox_messages SET status = 'sending', claimed_by = ?, claimed_at = ?, updated_at = ?
+            WHERE id IN (?) AND status = 'pending'`,
+          { replacements: [this.id, now, now, ids], transaction },
+        );
+        return ids;
+      }),
+    );
   }
 
   private toMail(row: OutboxMessage): MailMessage {
