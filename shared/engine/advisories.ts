@@ -387,12 +387,11 @@ export function clipSpacingBattenAdvisory(limited: { planeId: string; zones: Win
     for (const z of l.zones) zoneSet.add(z);
   }
   if (!planeIds.length) return [];
-  const zones = Array.from(zoneSet).sort();
   return [
     advisory(
       "clip-spacing-exceeds-battens",
       "warning",
-      `Clips can land only on battens (${fmt(battenSpacingIn, 0)} in apart), but the clip schedule asks for closer spacing in ${zoneListText(zones)}. ` +
+      `Clips can land only on battens (${fmt(battenSpacingIn, 0)} in apart), but the clip schedule asks for closer spacing in ${zoneListText(Array.from(zoneSet))}. ` +
         "The count uses the batten spacing. Add battens at the closer spacing in those zones, or build a solid second deck over sleepers.",
       "common practice; the panel maker's uplift table governs",
       planeIds,
