@@ -9,7 +9,7 @@
  * `underlay` left out keeps the stored one; `underlay: null` removes it.
  */
 import { z } from "zod";
-import { checkRoofShape, MAX_ID_LENGTH, MAX_PLANES, MAX_STACKS, planeSchema, stackSchema } from "./takeoff";
+import { checkRoofShape, MAX_ID_LENGTH, MAX_STACKS, planesSchema, stackSchema } from "./takeoff";
 
 /**
  * A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file);
@@ -36,10 +36,7 @@ export const underlaySchema = z.object({
 export type Underlay = z.output<typeof underlaySchema>;
 
 export const roofDocumentShape = {
-  planes: z
-    .array(planeSchema, { error: "Required" })
-    .min(1, "Add at least one roof plane")
-    .max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
+  planes: planesSchema,
   stacks: z
     .array(stackSchema, { error: "Required" })
     .min(1, "Add at least one roof assembly")

@@ -1,0 +1,224 @@
+/**
+ * parsePlaneFast must answer exactly as planeSchema does, or decline. These tests compare the two on generated
+ * planes (valid ones and ones with a wrong field), and the whole takeoff input against the same input parsed
+ * with planeSchema for every plane, as it was before the fast path: the same answer, or the same issues.
+ */
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { z } from "zod";
+import {
+  checkRoofShape,
+  MAX_PLANES,
+  MAX_STACKS,
+  parsePlaneFast,
+  planeSchema,
+  rulesSchema,
+  siteSchema,
+  stackSchema,
+  takeoffInputSchema,
+} from "@shared/schemas/takeoff";
+import { buildBenchRoof } from "@shared/engine/roof/bench-roof";
+import { gableRoof, hipRoof, lShapeGableRoof, shedRoof } from "@shared/engine/roof/generators";
+
+/** A value's keys in order with their values, all the way down (undefined values kept), for toStrictEqual. */
+const shape = (v: unknown): unknown =>
+  Array.isArray(v) ? v.map(shape) : v !== null && typeof v === "object" ? Object.entries(v).map(([k, x]) => [k, shape(x)]) : v;
+
+const validCoord = fc.oneof(fc.integer({ min: -1000, max: 1000 }), fc.double({ min: -1000, max: 1000, noNaN: true }));
+const validOutline = fc.array(fc.tuple(validCoord, validCoord), { minLength: 3, maxLength: 8 });
+const badCorner = fc.constantFrom<unknown>([1], [1, 2, 3], ["a", 2], [Number.NaN, 0], [0, Infinity], [2000, 0], [0, -1000.5], null, "1,2", { 0: 1, 1: 2 });
+const outline = fc.oneof(
+  { weight: 6, arbitrary: validOutline },
+  { weight: 1, arbitrary: fc.tuple(validOutline, badCorner, fc.nat(8)).map(([o, c, at]) => { const x: unknown[] = [...o]; x.splice(at % (x.length + 1), 0, c); return x; }) },
+  { weight: 1, arbitrary: fc.constantFrom<unknown>(undefined, null, "[[0,0]]", [[0, 0], [1, 1]], {}) },
+  { weight: 1, arbitrary: fc.array(fc.tuple(fc.integer(), fc.integer()), { minLength: 199, maxLength: 202 }) },
+);
+const edgeTypes = fc.oneof(
+  { weight: 3, arbitrary: fc.constant(undefined) },
+  { weight: 2, arbitrary: fc.dictionary(fc.nat(300).map(String), fc.constantFrom("eave", "rake", "ridge", "hip", "valley", "transition", "sidewall", "headwall"), { maxKeys: 4 }) },
+  {
+    weight: 1,
+    arbitrary: fc.constantFrom<unknown>(
+      {},
+      { x: "eave" },
+      { "1": "gutter" },
+      { "01": "rake" },
+      [],
+      null,
+      "eave",
+      JSON.parse('{"__proto__": "eave"}'),
+      Object.create(null),
+      Object.fromEntries(Array.from({ length: 201 }, (_, i) => [String(i), "eave"])),
+      Object.fromEntries(Array.from({ length: 200 }, (_, i) => [String(i), "rake"])),
+    ),
+  },
+);
+const penetration = fc.record(
+  {
+    id: fc.oneof(fc.string({ maxLength: 6 }), fc.constantFrom<unknown>(undefined, "", "x".repeat(101), 5)),
+    kind: fc.constantFrom<unknown>(undefined, "pipe", "chimney", "skylight", "vent", "other", "hole", 1),
+    diameterIn: fc.oneof(fc.double({ min: 0, max: 40, noNaN: true }), fc.constantFrom<unknown>(undefined, -1, Number.NaN, "3")),
+    widthIn: fc.oneof(fc.nat(60), fc.constantFrom<unknown>(undefined, -0.5)),
+    lengthIn: fc.oneof(fc.nat(60), fc.constantFrom<unknown>(undefined, null)),
+    count: fc.constantFrom<unknown>(undefined, 1, 2, 7, 0, 1.5, -1, "2"),
+    other: fc.constant("dropped"),
+  },
+  { requiredKeys: [] },
+);
+const penetrations = fc.oneof(
+  fc.constant(undefined),
+  fc.array(penetration, { maxLength: 3 }),
+  fc.constantFrom<unknown>(null, {}, [null], ["pipe"], Array.from({ length: 201 }, () => ({}))),
+);
+/** A plane with each key present or not, most values valid, some not (so both answers are seen). */
+const plane = fc.record(
+  {
+    id: fc.oneof({ weight: 8, arbitrary: fc.string({ minLength: 1, maxLength: 8 }) }, { weight: 1, arbitrary: fc.constantFrom<unknown>("", "p".repeat(101), "p".repeat(100), 7, null) }),
+    name: fc.oneof(fc.string({ maxLength: 12 }), fc.constantFrom<unknown>(undefined, "n".repeat(120), "n".repeat(121), null, 5)),
+    pitch: fc.oneof({ weight: 8, arbitrary: fc.oneof(fc.integer({ min: 0, max: 24 }), fc.double({ min: 0, max: 24, noNaN: true })) }, { weight: 1, arbitrary: fc.constantFrom<unknown>(-0, -1e-9, 24.0000001, 25, Number.NaN, Infinity, "4", undefined) }),
+    outline,
+    eaveEdge: fc.oneof({ weight: 8, arbitrary: fc.nat(9) }, { weight: 1, arbitrary: fc.constantFrom<unknown>(-1, 1.5, "0", undefined, 2 ** 60, Number.NaN) }),
+    baseElevationFt: fc.oneof(fc.double({ min: -50, max: 50, noNaN: true }), fc.constantFrom<unknown>(undefined, Number.NaN, -Infinity, "0", null)),
+    eaveOverhangIn: fc.oneof(fc.double({ min: 0, max: 36, noNaN: true }), fc.constantFrom<unknown>(undefined, -1, null, Infinity)),
+    edgeTypes,
+    stackId: fc.oneof(fc.constantFrom<unknown>("s", "t", undefined), fc.constantFrom<unknown>("", "s".repeat(101), 5, null)),
+    penetrations,
+    unknownKey: fc.anything({ maxDepth: 1 }),
+  },
+  { requiredKeys: [] },
+);
+
+/** A plane whose every field is valid (the optional ones present or not, or present as undefined). */
+const validPlane = fc.record(
+  {
+    id: fc.string({ minLength: 1, maxLength: 8 }),
+    name: fc.oneof(fc.string({ maxLength: 12 }), fc.constant(undefined)),
+    pitch: fc.oneof(fc.integer({ min: 0, max: 24 }), fc.double({ min: 0, max: 24, noNaN: true })),
+    outline: validOutline,
+    eaveEdge: fc.nat(9),
+    baseElevationFt: fc.oneof(fc.double({ min: -50, max: 50, noNaN: true }), fc.constant(undefined)),
+    eaveOverhangIn: fc.oneof(fc.double({ min: 0, max: 36, noNaN: true }), fc.constant(undefined)),
+    edgeTypes: fc.oneof(fc.constant(undefined), fc.dictionary(fc.nat(300).map(String), fc.constantFrom("eave", "rake", "ridge", "hip", "valley"), { maxKeys: 4 })),
+    stackId: fc.constantFrom("s", "t", undefined),
+    penetrations: fc.oneof(fc.constant(undefined), fc.array(fc.record({ kind: fc.constantFrom("pipe", "chimney", "vent"), diameterIn: fc.nat(8), count: fc.integer({ min: 1, max: 3 }) }, { requiredKeys: [] }), { maxLength: 2 })),
+  },
+  { requiredKeys: ["id", "pitch", "outline", "eaveEdge"] },
+);
+const anyPlane = fc.oneof(validPlane, plane);
+
+/** The planes of every shape the sketch tools draw, with the optional fields the sketch sets. */
+function drawnPlanes() {
+  return [
+    ...gableRoof(30, 20, 6, { idPrefix: "g" }),
+    ...hipRoof(36, 28, 8, { idPrefix: "h", origin: [60, 0], baseElevationFt: 2, stackId: "s" }),
+    ...lShapeGableRoof({ mainWidthFt: 40, mainDepthFt: 26, wingWidthFt: 18, wingDepthFt: 12, wingOffsetFt: 10 }, 4, { idPrefix: "l", origin: [0, 60] }),
+    ...shedRoof(16, 10, 3, { idPrefix: "s", origin: [80, 80] }),
+  ].map((p, i) => ({ ...p, eaveOverhangIn: 12 + i, edgeTypes: i % 3 ? {} : { "1": "rake" as const }, penetrations: i % 2 ? [] : [{ kind: "pipe" as const, diameterIn: 3 }, { id: "c1", kind: "chimney" as const, widthIn: 36, lengthIn: 24, count: 1 }] }));
+}
+
+describe("parsePlaneFast answers as planeSchema does, or declines", () => {
+  it("on generated planes: an answer only where planeSchema accepts, and then the same values, keys, key order and corner arrays", () => {
+    let answered = 0;
+    let declined = 0;
+    fc.assert(
+      fc.property(anyPlane, (raw) => {
+        const fast = parsePlaneFast(raw);
+        const ref = planeSchema.safeParse(raw);
+        if (fast === undefined) {
+          declined++;
+          return;
+        }
+        answered++;
+        expect(ref.success).toBe(true);
+        expect(shape(fast)).toStrictEqual(shape(ref.data));
+        expect(fast).toStrictEqual(ref.data);
+        // zod's array parse keeps each corner array itself (the outline's items are not parsed one by one).
+        fast.outline.forEach((c, i) => expect(c).toBe(ref.data!.outline[i]));
+      }),
+      { numRuns: 3000 },
+    );
+    // Both answers came up often enough for the comparison to mean something.
+    expect(answered).toBeGreaterThan(300);
+    expect(declined).toBeGreaterThan(300);
+  });
+
+  it("answers for every plane the sketch tools and the benchmark roof make (the fast path is the common path)", () => {
+    const planes: unknown[] = [...drawnPlanes(), ...buildBenchRoof(100).planes];
+    for (const p of planes) {
+      const fast = parsePlaneFast(JSON.parse(JSON.stringify(p)));
+      expect(fast).toBeDefined();
+      expect(fast).toStrictEqual(planeSchema.parse(p));
+    }
+  });
+
+  it("declines a plane planeSchema refuses, for each field (spot checks)", () => {
+    const good = { id: "a", pitch: 4, outline: [[0, 0], [20, 0], [20, 10]], eaveEdge: 0 };
+    expect(parsePlaneFast(good)).toBeDefined();
+    const bad: Record<string, unknown>[] = [
+      { id: "" },
+      { name: null },
+      { pitch: 24.5 },
+      { pitch: "4" },
+      { outline: [[0, 0], [20, 0]] },
+      { outline: [[0, 0], [20, 0], [20, Number.NaN]] },
+      { outline: [[0, 0], [20, 0], [1001, 10]] },
+      { eaveEdge: 0.5 },
+      { baseElevationFt: Infinity },
+      { eaveOverhangIn: -1 },
+      { edgeTypes: { "1": "gutter" } },
+      { edgeTypes: { a: "eave" } },
+      { stackId: "" },
+      { penetrations: [{ kind: "hole" }] },
+      { penetrations: [{ count: 0 }] },
+      { penetrations: [{ diameterIn: -2 }] },
+    ];
+    for (const change of bad) {
+      const raw = { ...good, ...change };
+      expect(planeSchema.safeParse(raw).success, JSON.stringify(change)).toBe(false);
+      expect(parsePlaneFast(raw), JSON.stringify(change)).toBeUndefined();
+    }
+  });
+});
+
+describe("the takeoff input's planes", () => {
+  // The takeoff input as it was defined before the fast path: planeSchema for every plane.
+  const reference = z
+    .object({
+      site: siteSchema,
+      planes: z.array(planeSchema, { error: "Required" }).min(1, "Add at least one roof plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
+      stacks: z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly").max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
+      defaultStackId: z.string({ error: "Required" }).min(1, "Required").max(100, "Use at most 100 characters"),
+      rules: rulesSchema,
+    })
+    .superRefine(checkRoofShape);
+  const issues = (e: z.ZodError) => e.issues.map((i) => [i.path.map(String).join("."), i.message]);
+  const roof = (planes: unknown) => ({ site: {}, planes, stacks: [{ id: "s" }, { id: "t" }], defaultStackId: "s" });
+
+  it("parse to the same roof, or fail with the same messages at the same paths", () => {
+    let failed = 0;
+    fc.assert(
+      fc.property(
+        fc.oneof({ weight: 6, arbitrary: fc.array(anyPlane, { minLength: 1, maxLength: 4 }) }, { weight: 1, arbitrary: fc.constantFrom<unknown>([], undefined, "planes", {}) }),
+        (planes) => {
+          const got = takeoffInputSchema.safeParse(roof(planes));
+          const want = reference.safeParse(roof(planes));
+          expect(got.success).toBe(want.success);
+          if (got.success && want.success) expect(shape(got.data)).toStrictEqual(shape(want.data));
+          else {
+            failed++;
+            expect(issues(got.error!)).toStrictEqual(issues(want.error!));
+          }
+        },
+      ),
+      { numRuns: 1500 },
+    );
+    expect(failed).toBeGreaterThan(100);
+  });
+
+  it("at most 500 planes, as before", () => {
+    const many = Array.from({ length: MAX_PLANES + 1 }, (_, i) => ({ id: `p${i}`, pitch: 4, outline: [[0, 0], [10, 0], [10, 10]], eaveEdge: 0 }));
+    const r = takeoffInputSchema.safeParse(roof(many));
+    expect(r.success).toBe(false);
+    expect(issues(r.error!)).toStrictEqual([["planes", "At most 500 planes"]]);
+  });
+});
