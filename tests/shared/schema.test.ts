@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { gapStudyInputSchema, rulesSchema, takeoffInputSchema } from "@shared/schemas/takeoff";
+import { DEFAULT_RULES, gapStudyInputSchema, rulesSchema, takeoffInputSchema } from "@shared/schemas/takeoff";
 import { computeTakeoff } from "@shared/engine/takeoff";
 
 const base = () => ({
@@ -35,6 +35,21 @@ describe("takeoff input defaults", () => {
     expect(s.panel).toMatchObject({ system: "standing-seam", coverageWidthIn: 16, gauge: 24, lapSealant: false, panelUndersideEmittance: 0.9 });
     expect(s.ventilation).toMatchObject({ eaveOpen: true, topOpen: true });
     expect(v.rules.waste.underlaymentPct).toBe(10);
+  });
+
+  it("a takeoff without rules gets every rule at its default, the same values as parsing `{}`, frozen", () => {
+    const v = takeoffInputSchema.parse(base());
+    expect(v.rules).toBe(DEFAULT_RULES);
+    expect(v.rules).toStrictEqual(rulesSchema.parse({}));
+    expect(Object.isFrozen(v.rules.waste)).toBe(true);
+    expect(() => {
+      (v.rules.waste as { trimPct: number }).trimPct = 50;
+    }).toThrow(TypeError);
+    // Rules that are sent are parsed as sent, their missing fields filled.
+    const sent = takeoffInputSchema.parse({ ...base(), rules: { waste: { trimPct: 5 } } });
+    expect(sent.rules).not.toBe(DEFAULT_RULES);
+    expect(sent.rules.waste).toStrictEqual({ ...rulesSchema.parse({}).waste, trimPct: 5 });
+    expect(takeoffInputSchema.safeParse({ ...base(), rules: { waste: { trimPct: -1 } } }).success).toBe(false);
   });
 
   it("accepts a climate zone like 3A and a code edition as a string", () => {
