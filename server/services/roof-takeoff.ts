@@ -3,7 +3,7 @@ import { z } from "zod";
 import { computeTakeoff, computeTakeoffParsed, refusalFromZod, type TakeoffOutcome } from "../../shared/engine/takeoff";
 import type { JobSite } from "../../shared/schemas/job";
 import type { RoofDocument } from "../../shared/schemas/roof";
-import { rulesSchema, siteSchema } from "../../shared/schemas/takeoff";
+import { rulesSchema, siteInputSchema } from "../../shared/schemas/takeoff";
 import { badRequest } from "../errors";
 import { rulesForCompany } from "./price-book-rules";
 
@@ -43,7 +43,7 @@ export async function computeStoredTakeoff(
 }
 
 /** The two parts of the engine's input a parsed roof document does not carry. */
-const siteAndRulesSchema = z.object({ site: siteSchema, rules: rulesSchema });
+const siteAndRulesSchema = z.object({ site: siteInputSchema, rules: rulesSchema });
 
 /**
  * `computeStoredTakeoff` for a roof document `roofSaveSchema` has already parsed and cross-checked (the roof

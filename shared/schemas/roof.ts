@@ -9,7 +9,7 @@
  * `underlay` left out keeps the stored one; `underlay: null` removes it.
  */
 import { z } from "zod";
-import { checkRoofShape, MAX_ID_LENGTH, MAX_STACKS, planesSchema, stackSchema } from "./takeoff";
+import { checkRoofShape, MAX_ID_LENGTH, planesSchema, stacksSchema } from "./takeoff";
 
 /**
  * A plan image placed under the sketch, in plan feet. `src` is a path on this server (an uploaded file);
@@ -37,10 +37,7 @@ export type Underlay = z.output<typeof underlaySchema>;
 
 export const roofDocumentShape = {
   planes: planesSchema,
-  stacks: z
-    .array(stackSchema, { error: "Required" })
-    .min(1, "Add at least one roof assembly")
-    .max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
+  stacks: stacksSchema,
   defaultStackId: z.string({ error: "Required" }).min(1, "Required").max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`),
 };
 

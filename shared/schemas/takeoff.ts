@@ -8,36 +8,28 @@
  */
 import { z } from "zod";
 import { LUMBER_NOMINALS } from "../engine/lumber";
-import { EDGE_TYPES, type EdgeType } from "../engine/roof/edge-types";
+import { EDGE_TYPES } from "../engine/roof/edge-types";
+import {
+  MAX_PLANES,
+  MAX_STACKS,
+  MAX_PLAN_FT,
+  MIN_PANEL_COVERAGE_IN,
+  MIN_BATTEN_SPACING_IN,
+  MAX_ID_LENGTH,
+  ATTIC_TYPES,
+  CODE_EDITIONS,
+  UNDERLAYMENT_KINDS,
+  SPACER_KINDS,
+  PANEL_SYSTEMS,
+  PANEL_STARTS,
+  PENETRATION_KINDS,
+  CLIMATE_ZONE_RE,
+  WIND_EXPOSURES,
+} from "./takeoff-limits";
+import { parsePlaneFast, parseSiteFast, parseStackFast } from "./takeoff-fast";
 import { planeGeometryOfParsed, isGeometryError } from "../engine/roof/geometry";
 
-export { EDGE_TYPES };
-export const MAX_PLANES = 500;
-/** Roof assemblies per roof: far more than any roof has, small enough to keep a body and a PDF bounded. */
-export const MAX_STACKS = 50;
-/**
- * Plan coordinates within ±MAX_PLAN_FT of the origin. The engine lays out every panel and batten course, so
- * a plane thousands of feet across (or a panel or batten spacing of a fraction of an inch) would make
- * millions of them: these bounds, far beyond any house, keep one request from exhausting the server.
- */
-export const MAX_PLAN_FT = 1_000;
-/** Narrowest panel coverage and closest batten spacing accepted, inches. */
-export const MIN_PANEL_COVERAGE_IN = 6;
-export const MIN_BATTEN_SPACING_IN = 6;
-/** Longest plane, assembly or penetration id. */
-export const MAX_ID_LENGTH = 100;
-export const ATTIC_TYPES = ["vented", "unvented", "cathedral"] as const;
-export const CODE_EDITIONS = [2012, 2015, 2018, 2021, 2024] as const;
-export const UNDERLAYMENT_KINDS = ["self-adhered", "synthetic", "felt"] as const;
-export const SPACER_KINDS = ["none", "battens", "mesh", "dimpled"] as const;
-/** Batten and counter-batten sizes (one list: the engine's lumber table). */
-export { LUMBER_NOMINALS };
-export const PANEL_SYSTEMS = ["standing-seam", "exposed-fastener"] as const;
-export const PANEL_STARTS = ["left", "right", "centred"] as const;
-export const PENETRATION_KINDS = ["pipe", "chimney", "skylight", "vent", "other"] as const;
-export const CLIMATE_ZONE_RE = /^[1-8][ABC]?$/;
-/** Wind exposure categories B, C, D (ASCE 7 26.7.3). */
-export const WIND_EXPOSURES = ["B", "C", "D"] as const;
+export * from "./takeoff-limits";
 
 const id = z.string({ error: "Required" }).min(1, "Required").max(MAX_ID_LENGTH, `Use at most ${MAX_ID_LENGTH} characters`);
 const size = z.number({ error: "Enter a number" }).min(0, "Must not be negative");
@@ -308,160 +300,50 @@ export const planeSchema = z.object({
 });
 
 export type PlaneParsed = z.output<typeof planeSchema>;
-type PenetrationParsed = z.output<typeof penetrationSchema>;
+export type PenetrationParsed = z.output<typeof penetrationSchema>;
 
-const isNumber = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
-const EDGE_TYPE_SET: ReadonlySet<unknown> = new Set(EDGE_TYPES);
-const PENETRATION_KIND_SET: ReadonlySet<unknown> = new Set(PENETRATION_KINDS);
-const EDGE_NUMBER = /^\d+$/;
+export { parsePlaneFast, parseSiteFast, parseStackFast };
 
 /**
- * planeSchema's own answer for a plane as the app, the API's clients and the stored roofs send it (every field
- * of its type and in range), worked out without zod; `undefined` for anything else, which planeSchema then
- * parses and reports as usual. Every takeoff and roof save parses every plane, and zod builds a result and an
- * issue list per field of each: in the server that was about a quarter of a 100-plane takeoff's time.
- *
- * It must give exactly what planeSchema gives (the same values, the same keys in the same order, the outline's
- * corner arrays themselves, unknown keys dropped) and must never accept what planeSchema refuses: when in doubt
- * it declines. tests/shared/plane-fast-parse.test.ts compares the two on generated planes, valid and not. A
- * change to planeSchema or penetrationSchema needs the same change here.
+ * Runs `schema` inside the parse that `payload` belongs to (a transform's), so its issues are those it raises in
+ * the input as a whole: the same paths, messages, and effect on the checks that follow (a plane's wrong corner
+ * count, say, does not stop the roof's cross-checks).
  */
-export function parsePlaneFast(raw: unknown): PlaneParsed | undefined {
-  if (typeof raw !== "object" || raw === null || Array.isArray(raw)) return undefined;
-  const p = raw as Record<string, unknown>;
-  const id = p.id;
-  if (typeof id !== "string" || id.length < 1 || id.length > MAX_ID_LENGTH) return undefined;
-  let name = p.name;
-  if (name === undefined) name = "";
-  else if (typeof name !== "string" || name.length > 120) return undefined;
-  const pitch = p.pitch;
-  if (!isNumber(pitch) || pitch < 0 || pitch > 24) return undefined;
-  const outline = outlineFast(p.outline);
-  if (outline === undefined) return undefined;
-  const eaveEdge = p.eaveEdge;
-  if (!Number.isSafeInteger(eaveEdge) || (eaveEdge as number) < 0) return undefined;
-  let baseElevationFt = p.baseElevationFt;
-  if (baseElevationFt === undefined) baseElevationFt = 0;
-  else if (!isNumber(baseElevationFt)) return undefined;
-  let eaveOverhangIn = p.eaveOverhangIn;
-  if (eaveOverhangIn === undefined) eaveOverhangIn = 12;
-  else if (!isNumber(eaveOverhangIn) || eaveOverhangIn < 0) return undefined;
-  const edgeTypes = edgeTypesFast(p.edgeTypes);
-  if (edgeTypes === undefined) return undefined;
-  const hasStack = "stackId" in p;
-  const stackId = p.stackId;
-  if (stackId !== undefined && (typeof stackId !== "string" || stackId.length < 1 || stackId.length > MAX_ID_LENGTH)) return undefined;
-  const penetrations = penetrationsFast(p.penetrations);
-  if (penetrations === undefined) return undefined;
-  const out = {
-    id,
-    name,
-    pitch,
-    outline,
-    eaveEdge: eaveEdge as number,
-    baseElevationFt,
-    eaveOverhangIn,
-    edgeTypes,
-  } as PlaneParsed;
-  // An optional key is in the answer when it is in the input, as zod's object parse has it (planeSchema's
-  // key order: stackId before penetrations).
-  if (hasStack) out.stackId = stackId as string | undefined;
-  out.penetrations = penetrations;
-  return out;
+function parseInside<T>(schema: z.ZodType<T>, raw: unknown, payload: z.core.ParsePayload): T {
+  const done = schema._zod.run({ value: raw, issues: [] }, { async: false });
+  if (done instanceof Promise) throw new Error("The takeoff input's schemas are synchronous");
+  for (const issue of done.issues) payload.issues.push(issue);
+  return done.value as T;
 }
-
-/** outlineSchema's answer (a new array of the same corner arrays), or undefined. */
-function outlineFast(v: unknown): [number, number][] | undefined {
-  if (!Array.isArray(v) || v.length < 3 || v.length > 200) return undefined;
-  const out: [number, number][] = [];
-  for (let i = 0; i < v.length; i++) {
-    const c: unknown = v[i];
-    if (!Array.isArray(c) || c.length !== 2) return undefined;
-    const x: unknown = c[0];
-    const y: unknown = c[1];
-    if (!isNumber(x) || !isNumber(y) || x < -MAX_PLAN_FT || x > MAX_PLAN_FT || y < -MAX_PLAN_FT || y > MAX_PLAN_FT) return undefined;
-    out.push(c as [number, number]);
-  }
-  return out;
-}
-
-/** edgeTypeOverrides' answer with its default (a new object of the same entries), or undefined. */
-function edgeTypesFast(v: unknown): Record<string, EdgeType> | undefined {
-  if (v === undefined) return {};
-  if (typeof v !== "object" || v === null || Object.getPrototypeOf(v) !== Object.prototype) return undefined;
-  const keys = Reflect.ownKeys(v);
-  if (keys.length > 200) return undefined;
-  const out: Record<string, EdgeType> = {};
-  for (const k of keys) {
-    if (typeof k !== "string" || !EDGE_NUMBER.test(k) || !Object.prototype.propertyIsEnumerable.call(v, k)) return undefined;
-    const t = (v as Record<string, unknown>)[k];
-    if (!EDGE_TYPE_SET.has(t)) return undefined;
-    out[k] = t as EdgeType;
-  }
-  return out;
-}
-
-/** The penetrations' answer with its default, or undefined. */
-function penetrationsFast(v: unknown): PenetrationParsed[] | undefined {
-  if (v === undefined) return [];
-  if (!Array.isArray(v) || v.length > 200) return undefined;
-  const out: PenetrationParsed[] = [];
-  for (let i = 0; i < v.length; i++) {
-    const x: unknown = v[i];
-    if (typeof x !== "object" || x === null || Array.isArray(x)) return undefined;
-    const r = x as Record<string, unknown>;
-    const pen = {} as PenetrationParsed;
-    if ("id" in r) {
-      const pid = r.id;
-      if (pid !== undefined && (typeof pid !== "string" || pid.length > MAX_ID_LENGTH)) return undefined;
-      pen.id = pid as string | undefined;
-    }
-    const kind = r.kind === undefined ? "pipe" : r.kind;
-    if (!PENETRATION_KIND_SET.has(kind)) return undefined;
-    pen.kind = kind as PenetrationParsed["kind"];
-    for (const key of ["diameterIn", "widthIn", "lengthIn"] as const) {
-      if (!(key in r)) continue;
-      const size: unknown = r[key];
-      if (size !== undefined && (!isNumber(size) || size < 0)) return undefined;
-      pen[key] = size as number | undefined;
-    }
-    const count = r.count === undefined ? 1 : r.count;
-    if (!Number.isSafeInteger(count) || (count as number) < 1) return undefined;
-    pen.count = count as number;
-    out.push(pen);
-  }
-  return out;
-}
-
-/** A roof's planes as zod parses them: planeSchema for each. */
-const planeListSchema = z
-  .array(planeSchema, { error: "Required" })
-  .min(1, "Add at least one roof plane")
-  .max(MAX_PLANES, `At most ${MAX_PLANES} planes`);
 
 /**
- * A roof's planes: planeListSchema's answer, by parsePlaneFast when it answers for every plane, else by
- * planeListSchema itself, run inside this parse so that its issues are those it raises in the input as a whole
- * (the same paths, messages, and effect on the roof's cross-checks, which a plane's wrong corner count, say,
- * does not stop). The input type is planeListSchema's.
+ * A list schema (z.array(item) with its limits) whose items are parsed by `fast` (./takeoff-fast) when it answers
+ * for every item, and by the list schema itself otherwise. The input type is the list schema's.
  */
-export const planesSchema = z
-  .unknown()
-  .transform((raw, payload) => {
-    if (Array.isArray(raw) && raw.length >= 1 && raw.length <= MAX_PLANES) {
-      const out: PlaneParsed[] = [];
-      for (let i = 0; i < raw.length; i++) {
-        const plane = parsePlaneFast(raw[i]);
-        if (plane === undefined) break;
-        out.push(plane);
+function fastList<S extends z.ZodArray<z.ZodType>>(list: S, fast: (raw: unknown) => z.output<S>[number] | undefined, min: number, max: number) {
+  return z
+    .unknown()
+    .transform((raw, payload) => {
+      if (Array.isArray(raw) && raw.length >= min && raw.length <= max) {
+        const out: z.output<S>[number][] = [];
+        for (let i = 0; i < raw.length; i++) {
+          const item = fast(raw[i]);
+          if (item === undefined) break;
+          out.push(item);
+        }
+        if (out.length === raw.length) return out;
       }
-      if (out.length === raw.length) return out;
-    }
-    const listed = planeListSchema._zod.run({ value: raw, issues: [] }, { async: false });
-    if (listed instanceof Promise) throw new Error("The planes' schema is synchronous");
-    for (const issue of listed.issues) payload.issues.push(issue);
-    return listed.value as PlaneParsed[];
-  }) as unknown as z.ZodType<PlaneParsed[], z.input<typeof planeListSchema>>;
+      return parseInside(list, raw, payload);
+    }) as unknown as z.ZodType<z.output<S>, z.input<S>>;
+}
+
+/** A roof's planes: z.array(planeSchema) with its messages, by parsePlaneFast where it answers for every plane. */
+export const planesSchema = fastList(
+  z.array(planeSchema, { error: "Required" }).min(1, "Add at least one roof plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
+  parsePlaneFast,
+  1,
+  MAX_PLANES,
+);
 
 // ---------------------------------------------------------------------------------------------------
 // stacks
@@ -555,17 +437,34 @@ export const stackSchema = z.object({
     .prefault({}),
 });
 
+export type StackParsed = z.output<typeof stackSchema>;
+export type SiteParsed = z.output<typeof siteSchema>;
+
+/** A roof's assemblies: z.array(stackSchema) with its messages, by parseStackFast where it answers for each. */
+export const stacksSchema = fastList(
+  z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly").max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
+  parseStackFast,
+  1,
+  MAX_STACKS,
+);
+
+/**
+ * The site: siteSchema's answer, by parseSiteFast where it answers. Left out, it is `{}` (as siteSchema's own
+ * prefault has it), which also makes the key optional in an object, as siteSchema's is.
+ */
+export const siteInputSchema = z
+  .unknown()
+  .transform((raw, payload) => parseSiteFast(raw) ?? parseInside(siteSchema, raw, payload))
+  .prefault({}) as unknown as z.ZodType<SiteParsed, z.input<typeof siteSchema>>;
+
 // ---------------------------------------------------------------------------------------------------
 // the whole input
 // ---------------------------------------------------------------------------------------------------
 
 const baseShape = {
-  site: siteSchema,
+  site: siteInputSchema,
   planes: planesSchema,
-  stacks: z
-    .array(stackSchema, { error: "Required" })
-    .min(1, "Add at least one roof assembly")
-    .max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
+  stacks: stacksSchema,
   defaultStackId: id,
   rules: takeoffRulesSchema,
 };

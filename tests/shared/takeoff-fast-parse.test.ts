@@ -1,7 +1,8 @@
 /**
- * parsePlaneFast must answer exactly as planeSchema does, or decline. These tests compare the two on generated
- * planes (valid ones and ones with a wrong field), and the whole takeoff input against the same input parsed
- * with planeSchema for every plane, as it was before the fast path: the same answer, or the same issues.
+ * The fast parse of the usual takeoff input (shared/schemas/takeoff-fast.ts) must answer exactly as the zod
+ * schemas do, or decline. These tests compare each function with its schema on generated values (valid ones and
+ * ones with a wrong field), and the whole takeoff input with the same input parsed by the schemas alone, as it was
+ * before the fast path: the same answer, or the same issues.
  */
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
@@ -11,6 +12,8 @@ import {
   MAX_PLANES,
   MAX_STACKS,
   parsePlaneFast,
+  parseSiteFast,
+  parseStackFast,
   planeSchema,
   rulesSchema,
   siteSchema,
@@ -106,6 +109,134 @@ const validPlane = fc.record(
 );
 const anyPlane = fc.oneof(validPlane, plane);
 
+/** A field's value: usually valid, sometimes left as undefined, sometimes one of `bad`. */
+type Field = <T>(valid: fc.Arbitrary<T>, ...bad: unknown[]) => fc.Arbitrary<unknown>;
+const anyField: Field = (valid, ...bad) =>
+  fc.oneof({ weight: 6, arbitrary: valid as fc.Arbitrary<unknown> }, { weight: 1, arbitrary: fc.constant(undefined) }, { weight: 1, arbitrary: fc.constantFrom<unknown>(...bad, null, "x") });
+/** The same, a bad value seldom (so that an assembly often has exactly one, which the fast parse must refuse). */
+const seldomBadField: Field = (valid, ...bad) =>
+  fc.oneof({ weight: 60, arbitrary: valid as fc.Arbitrary<unknown> }, { weight: 8, arbitrary: fc.constant(undefined) }, { weight: 1, arbitrary: fc.constantFrom<unknown>(...bad, null, "x") });
+/** The same, never one of the bad values (for assemblies and sites the schema accepts). */
+const goodField: Field = (valid) => fc.oneof({ weight: 6, arbitrary: valid as fc.Arbitrary<unknown> }, { weight: 1, arbitrary: fc.constant(undefined) });
+/** Assemblies and sites made with `field`: anyField gives some with a wrong value, goodField only valid ones. */
+function inputParts(field: Field) {
+  const sizeField = field(fc.double({ min: 0, max: 500, noNaN: true }), -1, Number.NaN, Infinity, "4");
+  const positiveField = field(fc.double({ min: 0.001, max: 500, noNaN: true }), 0, -0, -2, Number.NaN);
+  const boolField = field(fc.boolean(), 0, 1, "true");
+  const fractionField = field(fc.double({ min: 0, max: 1, noNaN: true }), 1.01, -0.01, Number.NaN);
+  const emittanceField = field(fc.double({ min: 0.01, max: 1, noNaN: true }), 0, 0.009, 1.1);
+  /** A sub-object with each key present or not (or the whole thing left out, or not an object). */
+  const part = (shape: Record<string, fc.Arbitrary<unknown>>) =>
+    field === goodField
+      ? fc.oneof({ weight: 8, arbitrary: fc.record({ ...shape, stray: fc.constant(1) }, { requiredKeys: [] }) as fc.Arbitrary<unknown> }, { weight: 1, arbitrary: fc.constant(undefined) })
+      : fc.oneof({ weight: 8, arbitrary: fc.record({ ...shape, stray: fc.constant(1) }, { requiredKeys: [] }) as fc.Arbitrary<unknown> }, { weight: 1, arbitrary: fc.constantFrom<unknown>(undefined, null, [], "x") });
+  const zoneValues = (f: fc.Arbitrary<unknown>) => part({ field: f, edge: f, corner: f });
+  const stack = fc.record(
+    {
+      id: field === goodField ? fc.string({ minLength: 1, maxLength: 8 }) : field(fc.string({ minLength: 1, maxLength: 8 }), "", "s".repeat(101), 3),
+      name: field(fc.string({ maxLength: 10 }), "n".repeat(121), 5),
+      deck: part({ action: field(fc.constantFrom("keep", "repair", "replace"), "redo"), material: field(fc.constantFrom("plywood", "osb"), "mdf"), thicknessIn: positiveField, repairSharePct: field(fc.double({ min: 0, max: 100, noNaN: true }), 101, -1) }),
+      underlayment: part({
+        kind: field(fc.constantFrom("self-adhered", "synthetic", "felt"), "paper"),
+        highTemp: boolField,
+        feltNumber: field(fc.constantFrom(15, 30), 20, "30"),
+        layers: field(fc.constantFrom(1, 2), 0, 3, 1.5),
+        iceBarrier: boolField,
+      }),
+      spacer: part({
+        kind: field(fc.constantFrom("none", "battens", "mesh", "dimpled"), "foam"),
+        thicknessIn: positiveField,
+        openFraction: fractionField,
+        battens: part({
+          nominal: field(fc.constantFrom("1x3", "1x4", "2x2", "2x4"), "2x6"),
+          spacingIn: field(fc.double({ min: 6, max: 48, noNaN: true }), 5.9, -1),
+          counterBattens: boolField,
+          counterBattenNominal: field(fc.constantFrom("1x3", "1x4", "2x2", "2x4"), "1x2"),
+          counterBattenSpacingIn: field(fc.double({ min: 6, max: 48, noNaN: true }), 2),
+          treated: boolField,
+        }),
+      }),
+      radiantBarrier: part({ kind: field(fc.constantFrom("none", "foil"), "film"), position: field(fc.constantFrom("on-deck", "under-panels"), "above"), reflectiveFace: field(fc.constantFrom("up", "down"), "both"), emittance: emittanceField }),
+      panel: part({
+        system: field(fc.constantFrom("standing-seam", "exposed-fastener"), "shingle"),
+        coverageWidthIn: field(fc.double({ min: 6, max: 60, noNaN: true }), 5.99, 60.01),
+        gauge: positiveField,
+        substrate: field(fc.constantFrom("metallic-coated-steel", "aluminum", "copper", "zinc"), "tin"),
+        solarReflectance: fractionField,
+        thermalEmittance: fractionField,
+        lapSealant: boolField,
+        minPitch: field(fc.double({ min: 0, max: 24, noNaN: true }), 24.5, -1),
+        panelUndersideEmittance: emittanceField,
+        clipSpacingIn: zoneValues(positiveField),
+        screwsPerSquare: zoneValues(sizeField),
+        hemAllowanceIn: sizeField,
+        maxLengthFt: field(fc.double({ min: 1, max: 60, noNaN: true }), 0.5),
+        start: field(fc.constantFrom("left", "right", "centred"), "middle"),
+      }),
+      ventilation: part({ intakeNfaPerFtSqIn: sizeField, exhaustNfaPerFtSqIn: sizeField, eaveOpen: boolField, topOpen: boolField, ventHips: boolField, ventHeadwalls: boolField, aboveDeckClaimed: boolField }),
+      unknownKey: fc.anything({ maxDepth: 1 }),
+    },
+    { requiredKeys: [] },
+  );
+  const site = fc.oneof(
+    { weight: 1, arbitrary: field === goodField ? fc.constant(undefined) : fc.constantFrom<unknown>(undefined, null, [], "vented") },
+    {
+      weight: 8,
+      arbitrary: fc.record(
+        {
+          atticType: field(fc.constantFrom("vented", "unvented", "cathedral"), "open"),
+          atticFloorAreaSqFt: sizeField,
+          climateZone: field(fc.constantFrom("3A", "5a", " 7 ", "4C", "8"), "9Z", "3AB", "A3", "", " ", 3),
+          iceDamRisk: boolField,
+          ventException: boolField,
+          codeEdition: field(fc.constantFrom<unknown>(2012, 2015, 2018, 2021, 2024, "2018", " 2024 "), 2019, "2021a", "20 21", 2021.5),
+          coolRoofRequired: boolField,
+          vaporRetarder: boolField,
+          existingLayers: field(fc.integer({ min: 0, max: 10 }), -1, 11, 1.5),
+          tearOff: boolField,
+          wind: part({
+            ratedAssemblyRequired: boolField,
+            basicWindSpeedMph: sizeField,
+            exposure: field(fc.constantFrom("B", "C", "D"), "A", "b"),
+            leastHorizontalDimensionFt: positiveField,
+            meanRoofHeightFt: positiveField,
+          }),
+          unknownKey: fc.anything({ maxDepth: 1 }),
+        },
+        { requiredKeys: [] },
+      ),
+    },
+  );
+  return { stack, site };
+}
+const anyParts = inputParts(anyField);
+const seldomBadParts = inputParts(seldomBadField);
+const goodParts = inputParts(goodField);
+const stack = fc.oneof(anyParts.stack, seldomBadParts.stack, goodParts.stack);
+const site = fc.oneof(anyParts.site, seldomBadParts.site, goodParts.site);
+
+/** Compares a fast parse with its schema on generated values; returns how often it answered and declined. */
+function compare(arb: fc.Arbitrary<unknown>, fast: (raw: unknown) => unknown, schema: z.ZodType, numRuns: number) {
+  let answered = 0;
+  let declined = 0;
+  fc.assert(
+    fc.property(arb, (raw) => {
+      const got = fast(raw);
+      const want = schema.safeParse(raw);
+      if (got === undefined) {
+        declined++;
+        return;
+      }
+      answered++;
+      expect(want.success).toBe(true);
+      expect(shape(got)).toStrictEqual(shape(want.data));
+      expect(got).toStrictEqual(want.data);
+    }),
+    { numRuns },
+  );
+  return { answered, declined };
+}
+
 /** The planes of every shape the sketch tools draw, with the optional fields the sketch sets. */
 function drawnPlanes() {
   return [
@@ -180,7 +311,35 @@ describe("parsePlaneFast answers as planeSchema does, or declines", () => {
   });
 });
 
-describe("the takeoff input's planes", () => {
+describe("parseStackFast and parseSiteFast answer as stackSchema and siteSchema do, or decline", () => {
+  it("on generated assemblies: an answer only where stackSchema accepts, and then the same values, keys and key order", () => {
+    const { answered, declined } = compare(stack, parseStackFast, stackSchema, 3000);
+    expect(answered).toBeGreaterThan(30);
+    expect(declined).toBeGreaterThan(300);
+  });
+
+  it("on generated sites: an answer only where siteSchema accepts (or the site is left out), the same answer", () => {
+    const { answered, declined } = compare(site, parseSiteFast, siteSchema, 3000);
+    expect(answered).toBeGreaterThan(100);
+    expect(declined).toBeGreaterThan(300);
+  });
+
+  it("answers for the assemblies and sites the app sends (the fast path is the common path)", () => {
+    const bench = buildBenchRoof(100);
+    for (const s of [...bench.stacks, { id: "bare" }, { id: "felt", underlayment: { kind: "felt", highTemp: false, feltNumber: 15, layers: 2 }, spacer: { kind: "battens", battens: { nominal: "2x4", spacingIn: 16, counterBattens: true, counterBattenNominal: "1x4", treated: true } }, panel: { system: "exposed-fastener", coverageWidthIn: 36, gauge: 26, clipSpacingIn: { field: 24 }, screwsPerSquare: { edge: 90 }, maxLengthFt: 30 }, ventilation: { intakeNfaPerFtSqIn: 9, exhaustNfaPerFtSqIn: 18, eaveOpen: false } }]) {
+      const raw = JSON.parse(JSON.stringify(s));
+      expect(parseStackFast(raw), s.id).toStrictEqual(stackSchema.parse(raw));
+    }
+    for (const s of [bench.site, undefined, {}, { atticType: "cathedral", climateZone: "6b", codeEdition: "2018", existingLayers: 2, tearOff: false, wind: { ratedAssemblyRequired: true, exposure: "C" } }]) {
+      const raw = s === undefined ? undefined : JSON.parse(JSON.stringify(s));
+      const fast = parseSiteFast(raw);
+      expect(fast).toBeDefined();
+      expect(fast).toStrictEqual(siteSchema.parse(raw));
+    }
+  });
+});
+
+describe("the takeoff input as a whole", () => {
   // The takeoff input as it was defined before the fast path: planeSchema for every plane.
   const reference = z
     .object({
@@ -193,6 +352,14 @@ describe("the takeoff input's planes", () => {
     .superRefine(checkRoofShape);
   const issues = (e: z.ZodError) => e.issues.map((i) => [i.path.map(String).join("."), i.message]);
   const roof = (planes: unknown) => ({ site: {}, planes, stacks: [{ id: "s" }, { id: "t" }], defaultStackId: "s" });
+  const same = (input: unknown) => {
+    const got = takeoffInputSchema.safeParse(input);
+    const want = reference.safeParse(input);
+    expect(got.success).toBe(want.success);
+    if (got.success && want.success) expect(shape(got.data)).toStrictEqual(shape(want.data));
+    else expect(issues(got.error!)).toStrictEqual(issues(want.error!));
+    return got.success;
+  };
 
   it("parse to the same roof, or fail with the same messages at the same paths", () => {
     let failed = 0;
@@ -208,6 +375,28 @@ describe("the takeoff input's planes", () => {
             failed++;
             expect(issues(got.error!)).toStrictEqual(issues(want.error!));
           }
+        },
+      ),
+      { numRuns: 1500 },
+    );
+    expect(failed).toBeGreaterThan(100);
+  });
+
+  it("with generated sites and assemblies (some keys left out): the same roof, or the same messages at the same paths", () => {
+    let failed = 0;
+    fc.assert(
+      fc.property(
+        fc.record(
+          {
+            site,
+            planes: fc.array(validPlane, { minLength: 1, maxLength: 2 }),
+            stacks: fc.oneof({ weight: 6, arbitrary: fc.array(stack, { minLength: 1, maxLength: 3 }) }, { weight: 1, arbitrary: fc.constantFrom<unknown>([], undefined, {}) }),
+            defaultStackId: fc.constantFrom<unknown>("s", "t", undefined),
+          },
+          { requiredKeys: ["planes"] },
+        ),
+        (input) => {
+          if (!same(input)) failed++;
         },
       ),
       { numRuns: 1500 },
