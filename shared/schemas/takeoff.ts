@@ -307,7 +307,9 @@ export { parsePlaneFast, parseSiteFast, parseStackFast };
 /**
  * Runs `schema` inside the parse that `payload` belongs to (a transform's), so its issues are those it raises in
  * the input as a whole: the same paths, messages, and effect on the checks that follow (a plane's wrong corner
- * count, say, does not stop the roof's cross-checks).
+ * count, say, does not stop the roof's cross-checks). `_zod.run` is zod 4's own step for a schema inside another
+ * (z.array calls it for each item); the issues stay raw until the outer parse finalises them, as they would in
+ * z.array. tests/shared/takeoff-fast-parse.test.ts holds the refusals to those of the plain zod schemas.
  */
 function parseInside<T>(schema: z.ZodType<T>, raw: unknown, payload: z.core.ParsePayload): T {
   const done = schema._zod.run({ value: raw, issues: [] }, { async: false });
