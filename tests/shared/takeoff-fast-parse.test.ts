@@ -91,6 +91,11 @@ const plane = fc.record(
   { requiredKeys: [] },
 );
 
+/** A penetration whose every field is valid (each present or not). */
+const validPenetration = fc.record(
+  { id: fc.string({ maxLength: 6 }), kind: fc.constantFrom("pipe", "chimney", "skylight", "vent", "other"), diameterIn: fc.nat(8), widthIn: fc.nat(60), lengthIn: fc.nat(60), count: fc.integer({ min: 1, max: 3 }) },
+  { requiredKeys: [] },
+);
 /** A plane whose every field is valid (the optional ones present or not, or present as undefined). */
 const validPlane = fc.record(
   {
@@ -103,11 +108,22 @@ const validPlane = fc.record(
     eaveOverhangIn: fc.oneof(fc.double({ min: 0, max: 36, noNaN: true }), fc.constant(undefined)),
     edgeTypes: fc.oneof(fc.constant(undefined), fc.dictionary(fc.nat(300).map(String), fc.constantFrom("eave", "rake", "ridge", "hip", "valley"), { maxKeys: 4 })),
     stackId: fc.constantFrom("s", "t", undefined),
-    penetrations: fc.oneof(fc.constant(undefined), fc.array(fc.record({ kind: fc.constantFrom("pipe", "chimney", "vent"), diameterIn: fc.nat(8), count: fc.integer({ min: 1, max: 3 }) }, { requiredKeys: [] }), { maxLength: 2 })),
+    penetrations: fc.oneof(fc.constant(undefined), fc.array(validPenetration, { maxLength: 2 })),
   },
   { requiredKeys: ["id", "pitch", "outline", "eaveEdge"] },
 );
-const anyPlane = fc.oneof(validPlane, plane);
+/** A valid value with one field taken from a generated value that may be wrong (so a single wrong field is common). */
+const withOneFieldOf = <T extends object>(valid: fc.Arbitrary<T>, mixed: fc.Arbitrary<object>, keys: string[]) =>
+  fc.tuple(valid, mixed, fc.constantFrom(...keys)).map(([v, m, k]) => (k in m ? { ...v, [k]: (m as Record<string, unknown>)[k] } : v));
+const oneBadPenetrationPlane = fc
+  .tuple(validPlane, withOneFieldOf(validPenetration, penetration, ["id", "kind", "diameterIn", "widthIn", "lengthIn", "count"]))
+  .map(([p, pen]) => ({ ...p, penetrations: [pen] }));
+const anyPlane = fc.oneof(
+  validPlane,
+  plane,
+  withOneFieldOf(validPlane, plane, ["id", "name", "pitch", "outline", "eaveEdge", "baseElevationFt", "eaveOverhangIn", "edgeTypes", "stackId", "penetrations"]),
+  oneBadPenetrationPlane,
+);
 
 /** A field's value: usually valid, sometimes left as undefined, sometimes one of `bad`. */
 type Field = <T>(valid: fc.Arbitrary<T>, ...bad: unknown[]) => fc.Arbitrary<unknown>;
