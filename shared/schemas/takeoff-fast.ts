@@ -42,8 +42,8 @@ const PENETRATION_KIND_SET: ReadonlySet<unknown> = new Set(PENETRATION_KINDS);
 const EDGE_NUMBER = /^\d+$/;
 
 // ---------------------------------------------------------------------------------------------------
-// Helpers for the assemblies and the site: each returns the field's parsed value or throws DECLINE, which the
-// exported function turns into `undefined` (so a refusal deep inside needs no checks on the way out).
+// Helpers: each returns the field's parsed value or throws DECLINE, which the exported functions turn into
+// `undefined` (so a refusal deep inside needs no checks on the way out; nothing is thrown for usual input).
 // ---------------------------------------------------------------------------------------------------
 
 const DECLINE = new Error("not in the usual form: the zod schema parses it");
@@ -255,112 +255,78 @@ function siteFast(raw: unknown): SiteParsed {
 
 /**
  * planeSchema's own answer for a plane in the usual form, or undefined (see the module comment). The outline
- * holds the input's corner arrays themselves, as zod's array parse keeps them. Written without the helpers
- * above (no exception on the way out): every takeoff parses every plane.
+ * holds the input's corner arrays themselves, as zod's array parse keeps them.
  */
 export function parsePlaneFast(raw: unknown): PlaneParsed | undefined {
-  if (typeof raw !== "object" || raw === null || Array.isArray(raw)) return undefined;
-  const p = raw as Record<string, unknown>;
-  const id = p.id;
-  if (typeof id !== "string" || id.length < 1 || id.length > MAX_ID_LENGTH) return undefined;
-  let name = p.name;
-  if (name === undefined) name = "";
-  else if (typeof name !== "string" || name.length > 120) return undefined;
-  const pitch = p.pitch;
-  if (!isNumber(pitch) || pitch < 0 || pitch > 24) return undefined;
-  const outline = outlineFast(p.outline);
-  if (outline === undefined) return undefined;
-  const eaveEdge = p.eaveEdge;
-  if (!Number.isSafeInteger(eaveEdge) || (eaveEdge as number) < 0) return undefined;
-  let baseElevationFt = p.baseElevationFt;
-  if (baseElevationFt === undefined) baseElevationFt = 0;
-  else if (!isNumber(baseElevationFt)) return undefined;
-  let eaveOverhangIn = p.eaveOverhangIn;
-  if (eaveOverhangIn === undefined) eaveOverhangIn = 12;
-  else if (!isNumber(eaveOverhangIn) || eaveOverhangIn < 0) return undefined;
-  const edgeTypes = edgeTypesFast(p.edgeTypes);
-  if (edgeTypes === undefined) return undefined;
-  const hasStack = "stackId" in p;
-  const stackId = p.stackId;
-  if (stackId !== undefined && (typeof stackId !== "string" || stackId.length < 1 || stackId.length > MAX_ID_LENGTH)) return undefined;
-  const penetrations = penetrationsFast(p.penetrations);
-  if (penetrations === undefined) return undefined;
-  const out = {
-    id,
-    name,
-    pitch,
-    outline,
-    eaveEdge: eaveEdge as number,
-    baseElevationFt,
-    eaveOverhangIn,
-    edgeTypes,
-  } as PlaneParsed;
-  // An optional key is in the answer when it is in the input, as zod's object parse has it (planeSchema's
-  // key order: stackId before penetrations).
-  if (hasStack) out.stackId = stackId as string | undefined;
-  out.penetrations = penetrations;
-  return out;
+  return orDecline(planeFast, raw);
 }
 
-/** outlineSchema's answer (a new array of the same corner arrays), or undefined. */
-function outlineFast(v: unknown): [number, number][] | undefined {
-  if (!Array.isArray(v) || v.length < 3 || v.length > 200) return undefined;
+const isEaveEdge = (x: number) => Number.isSafeInteger(x) && x >= 0;
+const isCount = (x: number) => Number.isSafeInteger(x) && x >= 1;
+const anyNumber = () => true;
+const edgeType = member(EDGE_TYPE_SET);
+
+function planeFast(raw: unknown): PlaneParsed {
+  const p = obj(raw);
+  const out: Rec = {
+    id: id(p.id),
+    name: p.name === undefined ? "" : typeof p.name === "string" && p.name.length <= 120 ? p.name : decline(),
+    pitch: num(p.pitch, isPitch),
+    outline: outlineFast(p.outline),
+    eaveEdge: num(p.eaveEdge, isEaveEdge),
+    baseElevationFt: numOr(p.baseElevationFt, 0, anyNumber),
+    eaveOverhangIn: numOr(p.eaveOverhangIn, 12, isSize),
+    edgeTypes: edgeTypesFast(p.edgeTypes),
+  };
+  opt(out, p, "stackId", id);
+  out.penetrations = penetrationsFast(p.penetrations);
+  return out as PlaneParsed;
+}
+
+/** outlineSchema's answer (a new array of the same corner arrays). */
+function outlineFast(v: unknown): [number, number][] {
+  if (!Array.isArray(v) || v.length < 3 || v.length > 200) decline();
   const out: [number, number][] = [];
   for (let i = 0; i < v.length; i++) {
     const c: unknown = v[i];
-    if (!Array.isArray(c) || c.length !== 2) return undefined;
+    if (!Array.isArray(c) || c.length !== 2) decline();
     const x: unknown = c[0];
     const y: unknown = c[1];
-    if (!isNumber(x) || !isNumber(y) || x < -MAX_PLAN_FT || x > MAX_PLAN_FT || y < -MAX_PLAN_FT || y > MAX_PLAN_FT) return undefined;
+    if (!isNumber(x) || !isNumber(y) || x < -MAX_PLAN_FT || x > MAX_PLAN_FT || y < -MAX_PLAN_FT || y > MAX_PLAN_FT) decline();
     out.push(c as [number, number]);
   }
   return out;
 }
 
-/** edgeTypeOverrides' answer with its default (a new object of the same entries), or undefined. */
-function edgeTypesFast(v: unknown): Record<string, EdgeType> | undefined {
+/** edgeTypeOverrides' answer with its default (a new object of the same entries). */
+function edgeTypesFast(v: unknown): Record<string, EdgeType> {
   if (v === undefined) return {};
-  if (typeof v !== "object" || v === null || Object.getPrototypeOf(v) !== Object.prototype) return undefined;
+  if (typeof v !== "object" || v === null || Object.getPrototypeOf(v) !== Object.prototype) decline();
   const keys = Reflect.ownKeys(v);
-  if (keys.length > 200) return undefined;
+  if (keys.length > 200) decline();
   const out: Record<string, EdgeType> = {};
   for (const k of keys) {
-    if (typeof k !== "string" || !EDGE_NUMBER.test(k) || !Object.prototype.propertyIsEnumerable.call(v, k)) return undefined;
-    const t = (v as Record<string, unknown>)[k];
-    if (!EDGE_TYPE_SET.has(t)) return undefined;
-    out[k] = t as EdgeType;
+    if (typeof k !== "string" || !EDGE_NUMBER.test(k) || !Object.prototype.propertyIsEnumerable.call(v, k)) decline();
+    out[k] = edgeType((v as Rec)[k]) as EdgeType;
   }
   return out;
 }
 
-/** The penetrations' answer with its default, or undefined. */
-function penetrationsFast(v: unknown): PenetrationParsed[] | undefined {
+/** The penetrations' answer with its default. */
+function penetrationsFast(v: unknown): PenetrationParsed[] {
   if (v === undefined) return [];
-  if (!Array.isArray(v) || v.length > 200) return undefined;
+  if (!Array.isArray(v) || v.length > 200) decline();
   const out: PenetrationParsed[] = [];
   for (let i = 0; i < v.length; i++) {
-    const x: unknown = v[i];
-    if (typeof x !== "object" || x === null || Array.isArray(x)) return undefined;
-    const r = x as Record<string, unknown>;
-    const pen = {} as PenetrationParsed;
-    if ("id" in r) {
-      const pid = r.id;
-      if (pid !== undefined && (typeof pid !== "string" || pid.length > MAX_ID_LENGTH)) return undefined;
-      pen.id = pid as string | undefined;
-    }
-    const kind = r.kind === undefined ? "pipe" : r.kind;
-    if (!PENETRATION_KIND_SET.has(kind)) return undefined;
-    pen.kind = kind as PenetrationParsed["kind"];
-    for (const key of ["diameterIn", "widthIn", "lengthIn"] as const) {
-      if (!(key in r)) continue;
-      const size: unknown = r[key];
-      if (size !== undefined && (!isNumber(size) || size < 0)) return undefined;
-      pen[key] = size as number | undefined;
-    }
-    const count = r.count === undefined ? 1 : r.count;
-    if (!Number.isSafeInteger(count) || (count as number) < 1) return undefined;
-    pen.count = count as number;
-    out.push(pen);
+    const r = obj(v[i]);
+    const pen: Rec = {};
+    opt(pen, r, "id", (x) => (typeof x === "string" && x.length <= MAX_ID_LENGTH ? x : decline()));
+    pen.kind = oneOf(r.kind, PENETRATION_KIND_SET, "pipe");
+    opt(pen, r, "diameterIn", size);
+    opt(pen, r, "widthIn", size);
+    opt(pen, r, "lengthIn", size);
+    pen.count = numOr(r.count, 1, isCount);
+    out.push(pen as PenetrationParsed);
   }
   return out;
 }
