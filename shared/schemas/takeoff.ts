@@ -7,9 +7,9 @@
  * Defaults are tagged like the engine's tests: [published] with the source, [common practice], [from memory].
  */
 import { z } from "zod";
-import { LUMBER_NOMINALS } from "../engine/lumber";
-import { EDGE_TYPES } from "../engine/roof/edge-types";
 import {
+  EDGE_TYPES,
+  LUMBER_NOMINALS,
   MAX_PLANES,
   MAX_STACKS,
   MAX_PLAN_FT,
@@ -319,33 +319,38 @@ function parseInside<T>(schema: z.ZodType<T>, raw: unknown, payload: z.core.Pars
 }
 
 /**
- * A list schema (z.array(item) with its limits) whose items are parsed by `fast` (./takeoff-fast) when it answers
- * for every item, and by the list schema itself otherwise. The input type is the list schema's.
+ * z.array(item) with its limits and messages, its items parsed by `fast` (./takeoff-fast) when it answers for
+ * every item, and by the array schema itself otherwise. The input type is the array schema's.
  */
-function fastList<S extends z.ZodArray<z.ZodType>>(list: S, fast: (raw: unknown) => z.output<S>[number] | undefined, min: number, max: number) {
+function fastList<T extends z.ZodType>(
+  item: T,
+  fast: (raw: unknown) => z.output<T> | undefined,
+  limits: { min: number; tooFew: string; max: number; tooMany: string },
+) {
+  const list = z.array(item, { error: "Required" }).min(limits.min, limits.tooFew).max(limits.max, limits.tooMany);
   return z
     .unknown()
     .transform((raw, payload) => {
-      if (Array.isArray(raw) && raw.length >= min && raw.length <= max) {
-        const out: z.output<S>[number][] = [];
+      if (Array.isArray(raw) && raw.length >= limits.min && raw.length <= limits.max) {
+        const out: z.output<T>[] = [];
         for (let i = 0; i < raw.length; i++) {
-          const item = fast(raw[i]);
-          if (item === undefined) break;
-          out.push(item);
+          const parsed = fast(raw[i]);
+          if (parsed === undefined) break;
+          out.push(parsed);
         }
         if (out.length === raw.length) return out;
       }
       return parseInside(list, raw, payload);
-    }) as unknown as z.ZodType<z.output<S>, z.input<S>>;
+    }) as unknown as z.ZodType<z.output<T>[], z.input<T>[]>;
 }
 
-/** A roof's planes: z.array(planeSchema) with its messages, by parsePlaneFast where it answers for every plane. */
-export const planesSchema = fastList(
-  z.array(planeSchema, { error: "Required" }).min(1, "Add at least one roof plane").max(MAX_PLANES, `At most ${MAX_PLANES} planes`),
-  parsePlaneFast,
-  1,
-  MAX_PLANES,
-);
+/** A roof's planes: planeSchema for each, by parsePlaneFast where it answers for every plane. */
+export const planesSchema = fastList(planeSchema, parsePlaneFast, {
+  min: 1,
+  tooFew: "Add at least one roof plane",
+  max: MAX_PLANES,
+  tooMany: `At most ${MAX_PLANES} planes`,
+});
 
 // ---------------------------------------------------------------------------------------------------
 // stacks
@@ -442,13 +447,13 @@ export const stackSchema = z.object({
 export type StackParsed = z.output<typeof stackSchema>;
 export type SiteParsed = z.output<typeof siteSchema>;
 
-/** A roof's assemblies: z.array(stackSchema) with its messages, by parseStackFast where it answers for each. */
-export const stacksSchema = fastList(
-  z.array(stackSchema, { error: "Required" }).min(1, "Add at least one roof assembly").max(MAX_STACKS, `At most ${MAX_STACKS} roof assemblies`),
-  parseStackFast,
-  1,
-  MAX_STACKS,
-);
+/** A roof's assemblies: stackSchema for each, by parseStackFast where it answers for every assembly. */
+export const stacksSchema = fastList(stackSchema, parseStackFast, {
+  min: 1,
+  tooFew: "Add at least one roof assembly",
+  max: MAX_STACKS,
+  tooMany: `At most ${MAX_STACKS} roof assemblies`,
+});
 
 /**
  * The site: siteSchema's answer, by parseSiteFast where it answers. Left out, it is `{}` (as siteSchema's own
